@@ -1,0 +1,35 @@
+//! One module per subcommand; each maps its arguments to core calls.
+
+mod modes;
+mod plan;
+
+use crate::cli::{Cli, Command, InputArgs};
+use provenance_core::error::Result;
+use provenance_core::input::{CountReader, Mapping, ReadOptions};
+
+/// Run a parsed command line.
+pub fn run(cli: Cli) -> Result<()> {
+    match cli.command {
+        Command::Modes(a) => modes::run(a),
+        Command::Plan(a) => plan::run(a),
+    }
+}
+
+/// Open the count table as the input arguments say.
+pub fn open_counts(a: &InputArgs) -> Result<CountReader> {
+    let mapping = a.scheme.as_deref().map(Mapping::from_path).transpose()?;
+    CountReader::from_path(
+        &a.counts,
+        ReadOptions {
+            percent: a.percent,
+            mapping,
+        },
+    )
+}
+
+/// Every input path of the arguments, to refuse an output over one of them.
+pub fn input_paths(a: &InputArgs) -> Vec<&std::path::Path> {
+    let mut v = vec![a.counts.as_path()];
+    v.extend(a.scheme.as_deref());
+    v
+}

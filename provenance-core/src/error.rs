@@ -1,0 +1,237 @@
+//! Errors. Every refusal says where (file, line, column), what was found and what was expected.
+//!
+//! Core never prints and never exits: it returns an [`Error`] and the caller decides.
+
+use std::fmt;
+
+/// A column of an input table: its 1-based position and its header text.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct Column {
+    /// 1-based position, as a spreadsheet counts.
+    pub index: usize,
+    /// The header text of the column.
+    pub name: String,
+}
+
+/// Where in an input a problem sits.
+///
+/// # Example
+/// ```
+/// use provenance_core::error::{Column, Location};
+/// let at = Location::new("counts.csv").line(7).column(Column { index: 5, name: "Lv".into() });
+/// assert_eq!(at.to_string(), "counts.csv, line 7, column 5 (\"Lv\")");
+/// ```
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct Location {
+    /// The file, as the user named it.
+    pub file: String,
+    /// 1-based line, as an editor shows it.
+    pub line: Option<u64>,
+    /// The column, when one cell is at fault.
+    pub column: Option<Column>,
+}
+
+impl Location {
+    /// A location naming only a file.
+    pub fn new(file: impl Into<String>) -> Self {
+        Location {
+            file: file.into(),
+            line: None,
+            column: None,
+        }
+    }
+
+    /// The same location at a line.
+    pub fn line(mut self, line: u64) -> Self {
+        self.line = Some(line);
+        self
+    }
+
+    /// The same location at a column.
+    pub fn column(mut self, column: Column) -> Self {
+        self.column = Some(column);
+        self
+    }
+}
+
+impl fmt::Display for Location {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        write!(f, "{}", self.file)?;
+        if let Some(line) = self.line {
+            write!(f, ", line {line}")?;
+        }
+        if let Some(c) = &self.column {
+            write!(f, ", column {} ({:?})", c.index, c.name)?;
+        }
+        Ok(())
+    }
+}
+
+/// Broad classes of error, for mapping to exit codes.
+///
+/// # Example
+/// ```
+/// use provenance_core::error::{Error, ErrorKind};
+/// let e = Error::EmptyInput { file: "a.csv".into() };
+/// assert_eq!(e.kind(), ErrorKind::Input);
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+#[non_exhaustive]
+pub enum ErrorKind {
+    /// The data were refused: fix the input.
+    Input,
+    /// A file could not be read or written.
+    Io,
+    /// The request itself was inconsistent (for example an output path equal to an input).
+    Usage,
+}
+
+/// Everything that can go wrong in sandprov's core.
+///
+/// # Example
+/// ```
+/// use provenance_core::error::{Error, Location};
+/// let e = Error::InvalidValue {
+///     at: Location::new("c.csv").line(3),
+///     value: "-2".into(),
+///     expected: "a whole number of points, 0 or more".into(),
+/// };
+/// assert!(e.to_string().contains("line 3"));
+/// ```
+#[derive(Debug, thiserror::Error)]
+#[non_exhaustive]
+pub enum Error {
+    /// A file could not be opened or read.
+    #[error("cannot read {path}: {source}")]
+    Read {
+        /// The file.
+        path: String,
+        /// The operating system's reason.
+        source: std::io::Error,
+    },
+    /// An output could not be written.
+    #[error("cannot write {path}: {source}")]
+    Write {
+        /// The file.
+        path: String,
+        /// The operating system's reason.
+        source: std::io::Error,
+    },
+    /// A cell holds a value of the wrong kind.
+    #[error("{at}: found {value:?}, expected {expected}")]
+    InvalidValue {
+        /// Where.
+        at: Location,
+        /// The offending text.
+        value: String,
+        /// What would have been accepted.
+        expected: String,
+    },
+    /// A row has no sample id.
+    #[error("{at}: the sample id is empty, expected a non-empty id")]
+    MissingId {
+        /// Where.
+        at: Location,
+    },
+    /// Two rows share a sample id.
+    #[error("{at}: sample id {id:?} was already used on line {first_line}, expected unique ids")]
+    DuplicateId {
+        /// Where the second use is.
+        at: Location,
+        /// The id.
+        id: String,
+        /// The line of the first use.
+        first_line: u64,
+    },
+    /// A row has more or fewer cells than the header.
+    #[error("{at}: the row has {found} cells, expected {expected} as in the header")]
+    RaggedRow {
+        /// Where.
+        at: Location,
+        /// Cells found.
+        found: usize,
+        /// Cells in the header.
+        expected: usize,
+    },
+    /// The file holds no header and no rows.
+    #[error("{file}: the file is empty, expected a header line and one row per sample")]
+    EmptyInput {
+        /// The file.
+        file: String,
+    },
+    /// The input is not UTF-8 text.
+    #[error("{at}: the bytes are not UTF-8 text, expected a CSV table")]
+    NotText {
+        /// Where.
+        at: Location,
+    },
+    /// The header names no count column at all.
+    #[error("{file}: no recognisable count columns among {headers:?}, expected Qm, Qp, C, P, K, Lv, Ls, Lm (or a --scheme mapping)")]
+    NoCountColumns {
+        /// The file.
+        file: String,
+        /// The header cells found.
+        headers: Vec<String>,
+    },
+    /// Some framework columns are missing.
+    #[error("{file}: missing column(s) {missing}, expected every framework category (Qm, Qp, P, K, Lv, Ls, Lm; C optional) or a --scheme mapping")]
+    MissingColumns {
+        /// The file.
+        file: String,
+        /// The missing categories, comma-separated.
+        missing: String,
+    },
+    /// Two header cells claim the same role.
+    #[error("{at}: column {name:?} repeats column {first} for the same category, expected each category once (use a --scheme mapping to sum columns)")]
+    DuplicateColumn {
+        /// Where the second column is.
+        at: Location,
+        /// The category it would feed.
+        name: String,
+        /// The 1-based index of the first column.
+        first: usize,
+    },
+    /// A mapping, field-set or model file is malformed.
+    #[error("{at}: {message}, expected {expected}")]
+    Malformed {
+        /// Where.
+        at: Location,
+        /// What is wrong.
+        message: String,
+        /// What would have been accepted.
+        expected: String,
+    },
+    /// An output path equals an input path.
+    #[error("output {path} is also an input, expected a different output path (inputs are never overwritten)")]
+    OutputIsInput {
+        /// The path.
+        path: String,
+    },
+    /// The request is inconsistent.
+    #[error("{message}")]
+    Usage {
+        /// What is wrong, in words.
+        message: String,
+    },
+}
+
+impl Error {
+    /// The broad class of this error.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::error::{Error, ErrorKind};
+    /// let e = Error::OutputIsInput { path: "a.csv".into() };
+    /// assert_eq!(e.kind(), ErrorKind::Usage);
+    /// ```
+    pub fn kind(&self) -> ErrorKind {
+        match self {
+            Error::Read { .. } | Error::Write { .. } => ErrorKind::Io,
+            Error::OutputIsInput { .. } | Error::Usage { .. } => ErrorKind::Usage,
+            _ => ErrorKind::Input,
+        }
+    }
+}
+
+/// Result with sandprov's [`Error`].
+pub type Result<T> = std::result::Result<T, Error>;

@@ -1,0 +1,139 @@
+//! Which column does what: resolved once from the header.
+
+use super::mapping::Mapping;
+use crate::counts::{normalize_header, Category};
+use crate::error::{Column, Error, Location, Result};
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub(crate) enum Role {
+    Id,
+    Feeds(Category),
+    Points,
+    Meta,
+}
+
+#[derive(Debug, Clone)]
+pub(crate) struct Layout {
+    pub roles: Vec<Role>,
+    pub id: usize,
+    /// Indices of metadata columns, in order.
+    pub meta: Vec<usize>,
+    /// Which non-framework categories are present.
+    pub present: [bool; 14],
+}
+
+pub(crate) fn resolve(
+    file: &str,
+    headers: &[String],
+    mapping: Option<&Mapping>,
+    percent: bool,
+) -> Result<Layout> {
+    let keys: Vec<String> = headers.iter().map(|h| normalize_header(h)).collect();
+    let at_col = |i: usize| {
+        Location::new(file).line(1).column(Column {
+            index: i + 1,
+            name: headers[i].clone(),
+        })
+    };
+    let mut roles = vec![Role::Meta; headers.len()];
+
+    let id_name = mapping
+        .and_then(|m| m.id_column.clone())
+        .unwrap_or_else(|| "sample".into());
+    let id = keys
+        .iter()
+        .position(|k| *k == normalize_header(&id_name))
+        .ok_or_else(|| Error::Malformed {
+            at: Location::new(file).line(1),
+            message: format!("no sample id column {id_name:?} among {headers:?}"),
+            expected: "a column named \"sample\" (or id = \"…\" in the --scheme mapping)".into(),
+        })?;
+    roles[id] = Role::Id;
+
+    if let Some(m) = mapping {
+        for mc in &m.columns {
+            let key = normalize_header(&mc.column);
+            let i = keys.iter().position(|k| *k == key).ok_or_else(|| Error::Malformed {
+                at: Location::new(&m.file).line(mc.line),
+                message: format!(
+                    "column {:?} mapped to {} is not in {file}",
+                    mc.column,
+                    mc.category.symbol()
+                ),
+                expected: format!("a column of {file}'s header {headers:?}"),
+            })?;
+            if roles[i] != Role::Meta {
+                return Err(Error::Malformed {
+                    at: Location::new(&m.file).line(mc.line),
+                    message: format!("column {:?} is the sample id column", mc.column),
+                    expected: "a count column".into(),
+                });
+            }
+            roles[i] = Role::Feeds(mc.category);
+        }
+    }
+
+    if percent {
+        let name = mapping
+            .and_then(|m| m.points_column.clone())
+            .unwrap_or_else(|| "n".into());
+        if let Some(i) = keys.iter().position(|k| *k == normalize_header(&name)) {
+            if roles[i] == Role::Meta {
+                roles[i] = Role::Points;
+            }
+        }
+    }
+
+    let mut direct: [Option<usize>; 14] = [None; 14];
+    for i in 0..headers.len() {
+        if roles[i] != Role::Meta {
+            continue;
+        }
+        let Some(c) = Category::from_name(&headers[i]) else {
+            continue;
+        };
+        if mapping.is_some_and(|m| m.maps(c)) {
+            continue;
+        }
+        if let Some(first) = direct[c.index()] {
+            return Err(Error::DuplicateColumn {
+                at: at_col(i),
+                name: c.symbol().into(),
+                first: first + 1,
+            });
+        }
+        direct[c.index()] = Some(i);
+        roles[i] = Role::Feeds(c);
+    }
+
+    let mut present = [false; 14];
+    for r in &roles {
+        if let Role::Feeds(c) = r {
+            present[c.index()] = true;
+        }
+    }
+    if !present.iter().any(|p| *p) {
+        return Err(Error::NoCountColumns {
+            file: file.into(),
+            headers: headers.to_vec(),
+        });
+    }
+    let missing: Vec<&str> = Category::ALL[..8]
+        .iter()
+        .filter(|c| **c != Category::C && !present[c.index()])
+        .map(|c| c.symbol())
+        .collect();
+    if !missing.is_empty() {
+        return Err(Error::MissingColumns {
+            file: file.into(),
+            missing: missing.join(", "),
+        });
+    }
+    let meta = (0..headers.len()).filter(|i| roles[*i] == Role::Meta).collect();
+    Ok(Layout {
+        roles,
+        id,
+        meta,
+        present,
+    })
+}

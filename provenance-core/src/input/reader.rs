@@ -1,0 +1,368 @@
+//! The streaming count-table reader.
+
+use super::cell;
+use super::layout::{resolve, Layout, Role};
+use super::mapping::Mapping;
+use crate::counts::{Counting, Framework, NonFramework, Sample};
+use crate::error::{Column, Error, Location, Result};
+use std::collections::HashMap;
+use std::hash::{DefaultHasher, Hash, Hasher};
+use std::io::{BufRead, BufReader, Cursor, Read};
+
+pub use super::cell::MAX_COUNT;
+
+/// How to read a table.
+///
+/// # Example
+/// ```
+/// use provenance_core::input::ReadOptions;
+/// let o = ReadOptions { percent: true, ..Default::default() };
+/// assert!(o.mapping.is_none());
+/// ```
+#[derive(Debug, Clone, Default)]
+pub struct ReadOptions {
+    /// Cells are percentages (published tables), not counts.
+    pub percent: bool,
+    /// A column mapping (`--scheme`).
+    pub mapping: Option<Mapping>,
+}
+
+/// The detected text dialect of a table.
+///
+/// # Example
+/// ```
+/// use provenance_core::input::{CountReader, ReadOptions};
+/// let text = "sample;Qm;Qp;P;K;Lv;Ls;Lm\nA;1;2;3;4;5;6;7\n";
+/// let r = CountReader::from_reader("t.csv", text.as_bytes(), ReadOptions::default()).unwrap();
+/// assert_eq!(r.dialect().delimiter, b';');
+/// assert!(r.dialect().decimal_comma);
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct Dialect {
+    /// Field delimiter: comma, semicolon or tab.
+    pub delimiter: u8,
+    /// Decimal commas are read (only with a semicolon delimiter).
+    pub decimal_comma: bool,
+    /// The file began with a UTF-8 byte-order mark.
+    pub bom: bool,
+}
+
+/// Reads a count table row by row, validating every cell.
+///
+/// Memory stays flat: one row is held at a time, plus a 16-byte entry per sample id to detect
+/// duplicates.
+///
+/// # Example
+/// ```
+/// use provenance_core::input::{CountReader, ReadOptions};
+/// let text = "sample,Qm,Qp,C,P,K,Lv,Ls,Lm,formation\nA-1,200,10,5,40,25,10,6,4,Upper\n";
+/// let mut r = CountReader::from_reader("t.csv", text.as_bytes(), ReadOptions::default()).unwrap();
+/// assert_eq!(r.metadata_columns(), ["formation"]);
+/// let s = r.next().unwrap().unwrap();
+/// assert_eq!(s.id, "A-1");
+/// assert_eq!(s.line, 2);
+/// assert_eq!(s.framework.total(), 300.0);
+/// assert_eq!(s.metadata, ["Upper"]);
+/// assert!(r.next().is_none());
+/// ```
+pub struct CountReader {
+    file: String,
+    csv: csv::Reader<Box<dyn Read + Send>>,
+    headers: Vec<String>,
+    meta_names: Vec<String>,
+    layout: Layout,
+    dialect: Dialect,
+    percent: bool,
+    seen: HashMap<u64, u64>,
+    record: csv::ByteRecord,
+    done: bool,
+}
+
+fn sniff_delimiter(line: &[u8]) -> u8 {
+    let mut counts = [0usize; 3];
+    let mut quoted = false;
+    for b in line {
+        match b {
+            b'"' => quoted = !quoted,
+            b',' if !quoted => counts[0] += 1,
+            b';' if !quoted => counts[1] += 1,
+            b'\t' if !quoted => counts[2] += 1,
+            _ => {}
+        }
+    }
+    let best = (0..3).max_by_key(|i| (counts[*i], *i)).unwrap_or(0);
+    if counts[best] == 0 {
+        b','
+    } else {
+        [b',', b';', b'\t'][best]
+    }
+}
+
+fn id_key(id: &str) -> u64 {
+    let mut h = DefaultHasher::new();
+    id.hash(&mut h);
+    h.finish()
+}
+
+impl CountReader {
+    /// Open a file.
+    pub fn from_path(path: &std::path::Path, options: ReadOptions) -> Result<CountReader> {
+        let name = path.display().to_string();
+        let f = std::fs::File::open(path).map_err(|source| Error::Read {
+            path: name.clone(),
+            source,
+        })?;
+        CountReader::from_reader(&name, f, options)
+    }
+
+    /// Read from any byte source; `file` names it in messages.
+    pub fn from_reader<R: Read + Send + 'static>(
+        file: &str,
+        reader: R,
+        options: ReadOptions,
+    ) -> Result<CountReader> {
+        let read_err = |source| Error::Read {
+            path: file.to_string(),
+            source,
+        };
+        let mut buf = BufReader::with_capacity(1 << 16, reader);
+        // Keep leading blank lines (so line numbers stay right) and the header line.
+        let mut head = Vec::new();
+        let header_start = loop {
+            let start = head.len();
+            let n = (&mut buf)
+                .take(1 << 20)
+                .read_until(b'\n', &mut head)
+                .map_err(read_err)?;
+            if n == 0 {
+                return Err(Error::EmptyInput { file: file.into() });
+            }
+            if head[start..].iter().any(|b| !b.is_ascii_whitespace()) {
+                break start;
+            }
+        };
+        let bom = head.starts_with(b"\xEF\xBB\xBF");
+        if bom {
+            head.drain(..3);
+        }
+        let header_start = if bom && header_start >= 3 { header_start - 3 } else { header_start };
+        if head.contains(&0) || std::str::from_utf8(&head).is_err() {
+            return Err(Error::NotText {
+                at: Location::new(file).line(1),
+            });
+        }
+        let delimiter = sniff_delimiter(&head[header_start..]);
+        let dialect = Dialect {
+            delimiter,
+            decimal_comma: delimiter == b';',
+            bom,
+        };
+        let source: Box<dyn Read + Send> = Box::new(Cursor::new(head).chain(buf));
+        let mut csv = csv::ReaderBuilder::new()
+            .delimiter(delimiter)
+            .flexible(true)
+            .has_headers(true)
+            .from_reader(source);
+        let headers: Vec<String> = csv
+            .headers()
+            .map_err(|e| csv_error(file, e))?
+            .iter()
+            .map(|h| h.trim().to_string())
+            .collect();
+        let layout = resolve(file, &headers, options.mapping.as_ref(), options.percent)?;
+        let meta_names = layout.meta.iter().map(|i| headers[*i].clone()).collect();
+        Ok(CountReader {
+            file: file.to_string(),
+            csv,
+            headers,
+            meta_names,
+            layout,
+            dialect,
+            percent: options.percent,
+            seen: HashMap::new(),
+            record: csv::ByteRecord::new(),
+            done: false,
+        })
+    }
+
+    /// The file name used in messages.
+    pub fn file(&self) -> &str {
+        &self.file
+    }
+
+    /// The detected dialect.
+    pub fn dialect(&self) -> Dialect {
+        self.dialect
+    }
+
+    /// The header cells, trimmed.
+    pub fn headers(&self) -> &[String] {
+        &self.headers
+    }
+
+    /// Names of the metadata columns, in table order.
+    pub fn metadata_columns(&self) -> &[String] {
+        &self.meta_names
+    }
+
+    /// True when the table has a column feeding `category`.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::counts::Category;
+    /// use provenance_core::input::{CountReader, ReadOptions};
+    /// let t = "sample,Qm,Qp,P,K,Lv,Ls,Lm\nA,1,1,1,1,1,1,1\n";
+    /// let r = CountReader::from_reader("t.csv", t.as_bytes(), ReadOptions::default()).unwrap();
+    /// assert!(!r.has_category(Category::Matrix));
+    /// assert!(r.has_category(Category::Lm));
+    /// ```
+    pub fn has_category(&self, category: crate::counts::Category) -> bool {
+        self.layout.present[category.index()]
+    }
+
+    fn location(&self, line: u64, col: usize) -> Location {
+        Location::new(&self.file).line(line).column(Column {
+            index: col + 1,
+            name: self.headers.get(col).cloned().unwrap_or_default(),
+        })
+    }
+
+    fn text(&self, line: u64, col: usize) -> Result<String> {
+        std::str::from_utf8(&self.record[col])
+            .map(str::to_string)
+            .map_err(|_| Error::NotText {
+                at: self.location(line, col),
+            })
+    }
+
+    fn parse_row(&mut self, line: u64) -> Result<Sample> {
+        let width = self.headers.len();
+        if self.record.len() != width {
+            return Err(Error::RaggedRow {
+                at: Location::new(&self.file).line(line),
+                found: self.record.len(),
+                expected: width,
+            });
+        }
+        let id = self.text(line, self.layout.id)?.trim().to_string();
+        if id.is_empty() {
+            return Err(Error::MissingId {
+                at: self.location(line, self.layout.id),
+            });
+        }
+        let mut framework = Framework::default();
+        let mut other = NonFramework::default();
+        let mut points = None;
+        let comma = self.dialect.decimal_comma;
+        for (i, role) in self.layout.roles.iter().enumerate() {
+            let cell = &self.record[i];
+            let parsed = match role {
+                Role::Feeds(c) => {
+                    let v = if self.percent {
+                        cell::percent(cell, comma)
+                    } else {
+                        cell::count(cell, comma)
+                    };
+                    v.map(|v| {
+                        if c.is_framework() {
+                            framework.add(*c, v);
+                        } else {
+                            other.add(*c, v);
+                        }
+                    })
+                }
+                Role::Points => cell::points(cell, comma).map(|p| points = p),
+                Role::Id | Role::Meta => Ok(()),
+            };
+            if let Err(expected) = parsed {
+                return Err(Error::InvalidValue {
+                    at: self.location(line, i),
+                    value: String::from_utf8_lossy(cell::trimmed(cell)).into_owned(),
+                    expected: expected.to_string(),
+                });
+            }
+        }
+        let counting = match (self.percent, points) {
+            (false, _) => Counting::Counted,
+            (true, Some(n)) => {
+                framework = framework.scaled(n / 100.0);
+                other = other.scaled(n / 100.0);
+                Counting::FromPercent { points: n }
+            }
+            (true, None) => Counting::Unknown,
+        };
+        let mut metadata = Vec::with_capacity(self.layout.meta.len());
+        for j in 0..self.layout.meta.len() {
+            metadata.push(self.text(line, self.layout.meta[j])?);
+        }
+        let key = id_key(&id);
+        if let Some(first) = self.seen.insert(key, line) {
+            self.seen.insert(key, first);
+            return Err(Error::DuplicateId {
+                at: self.location(line, self.layout.id),
+                id,
+                first_line: first,
+            });
+        }
+        Ok(Sample {
+            id,
+            line,
+            framework,
+            other,
+            counting,
+            metadata,
+        })
+    }
+}
+
+fn csv_error(file: &str, e: csv::Error) -> Error {
+    let line = e.position().map(|p| p.line());
+    match e.into_kind() {
+        csv::ErrorKind::Io(source) => Error::Read {
+            path: file.into(),
+            source,
+        },
+        other => Error::Malformed {
+            at: Location {
+                file: file.into(),
+                line,
+                column: None,
+            },
+            message: format!("unreadable CSV ({other:?})"),
+            expected: "a delimited text table".into(),
+        },
+    }
+}
+
+impl Iterator for CountReader {
+    type Item = Result<Sample>;
+
+    fn next(&mut self) -> Option<Result<Sample>> {
+        if self.done {
+            return None;
+        }
+        loop {
+            match self.csv.read_byte_record(&mut self.record) {
+                Ok(false) => {
+                    self.done = true;
+                    return None;
+                }
+                Ok(true) => {}
+                Err(e) => {
+                    self.done = true;
+                    return Some(Err(csv_error(&self.file, e)));
+                }
+            }
+            // Rows of empty cells (spreadsheet trailers such as ";;;;") are skipped.
+            if self.record.iter().all(|f| cell::trimmed(f).is_empty()) {
+                continue;
+            }
+            let line = self.record.position().map_or(0, |p| p.line());
+            let r = self.parse_row(line);
+            if r.is_err() {
+                self.done = true;
+            }
+            return Some(r);
+        }
+    }
+}

@@ -1,0 +1,174 @@
+//! Outputs that appear whole or not at all, and never over an input.
+
+use crate::error::{Error, Result};
+use std::io::{BufWriter, Write};
+use std::path::{Path, PathBuf};
+
+fn resolved(p: &Path) -> PathBuf {
+    if let Ok(c) = p.canonicalize() {
+        return c;
+    }
+    let parent = p.parent().filter(|q| !q.as_os_str().is_empty()).unwrap_or(Path::new("."));
+    match (parent.canonicalize(), p.file_name()) {
+        (Ok(dir), Some(name)) => dir.join(name),
+        _ => p.to_path_buf(),
+    }
+}
+
+/// Refuse an output path that names one of the inputs (after resolving links and `..`).
+///
+/// # Example
+/// ```
+/// use provenance_core::output::check_not_input;
+/// use std::path::Path;
+/// assert!(check_not_input(Path::new("out.csv"), &[Path::new("in.csv")]).is_ok());
+/// assert!(check_not_input(Path::new("./in.csv"), &[Path::new("in.csv")]).is_err());
+/// ```
+pub fn check_not_input(output: &Path, inputs: &[&Path]) -> Result<()> {
+    let out = resolved(output);
+    if inputs.iter().any(|i| resolved(i) == out) {
+        return Err(Error::OutputIsInput {
+            path: output.display().to_string(),
+        });
+    }
+    Ok(())
+}
+
+/// A file written under a temporary name beside its target and renamed into place by
+/// [`AtomicFile::commit`]. Dropped without commit, it leaves nothing behind.
+///
+/// # Example
+/// ```
+/// use provenance_core::output::AtomicFile;
+/// use std::io::Write;
+/// let dir = tempfile::tempdir().unwrap();
+/// let path = dir.path().join("out.csv");
+/// let mut f = AtomicFile::create(&path).unwrap();
+/// f.write_all(b"a,b\n").unwrap();
+/// assert!(!path.exists());
+/// f.commit().unwrap();
+/// assert_eq!(std::fs::read(&path).unwrap(), b"a,b\n");
+/// ```
+pub struct AtomicFile {
+    tmp: BufWriter<tempfile::NamedTempFile>,
+    path: PathBuf,
+}
+
+impl AtomicFile {
+    /// Start writing `path`.
+    pub fn create(path: &Path) -> Result<AtomicFile> {
+        let dir = path
+            .parent()
+            .filter(|p| !p.as_os_str().is_empty())
+            .unwrap_or(Path::new("."));
+        let tmp = tempfile::Builder::new()
+            .prefix(".sandprov-")
+            .suffix(".partial")
+            .tempfile_in(dir)
+            .map_err(|source| Error::Write {
+                path: path.display().to_string(),
+                source,
+            })?;
+        Ok(AtomicFile {
+            tmp: BufWriter::with_capacity(1 << 16, tmp),
+            path: path.to_path_buf(),
+        })
+    }
+
+    /// The final path.
+    pub fn path(&self) -> &Path {
+        &self.path
+    }
+
+    /// Flush and move the file into place.
+    pub fn commit(self) -> Result<()> {
+        let err = |source| Error::Write {
+            path: self.path.display().to_string(),
+            source,
+        };
+        let tmp = self.tmp.into_inner().map_err(|e| err(e.into_error()))?;
+        tmp.as_file().sync_all().map_err(err)?;
+        tmp.persist(&self.path).map_err(|e| err(e.error))?;
+        Ok(())
+    }
+}
+
+impl Write for AtomicFile {
+    fn write(&mut self, buf: &[u8]) -> std::io::Result<usize> {
+        self.tmp.write(buf)
+    }
+    fn flush(&mut self) -> std::io::Result<()> {
+        self.tmp.flush()
+    }
+}
+
+/// Where a table goes: standard output, or an atomic file.
+///
+/// # Example
+/// ```
+/// use provenance_core::output::Sink;
+/// use std::io::Write;
+/// let dir = tempfile::tempdir().unwrap();
+/// let path = dir.path().join("t.csv");
+/// let mut s = Sink::open(Some(&path), &[]).unwrap();
+/// writeln!(s, "x").unwrap();
+/// s.finish().unwrap();
+/// assert!(path.exists());
+/// ```
+pub enum Sink {
+    /// Standard output, buffered.
+    Stdout(BufWriter<std::io::Stdout>),
+    /// A file that appears only on success.
+    File(AtomicFile),
+}
+
+impl Sink {
+    /// Standard output when `path` is `None` or `-`, otherwise an atomic file; refuses a path
+    /// equal to one of `inputs`.
+    pub fn open(path: Option<&Path>, inputs: &[&Path]) -> Result<Sink> {
+        match path {
+            None => Ok(Sink::Stdout(BufWriter::with_capacity(1 << 16, std::io::stdout()))),
+            Some(p) if p.as_os_str() == "-" => {
+                Ok(Sink::Stdout(BufWriter::with_capacity(1 << 16, std::io::stdout())))
+            }
+            Some(p) => {
+                check_not_input(p, inputs)?;
+                Ok(Sink::File(AtomicFile::create(p)?))
+            }
+        }
+    }
+
+    /// A name for messages.
+    pub fn name(&self) -> String {
+        match self {
+            Sink::Stdout(_) => "standard output".into(),
+            Sink::File(f) => f.path().display().to_string(),
+        }
+    }
+
+    /// Flush standard output, or commit the file.
+    pub fn finish(self) -> Result<()> {
+        match self {
+            Sink::Stdout(mut w) => w.flush().map_err(|source| Error::Write {
+                path: "standard output".into(),
+                source,
+            }),
+            Sink::File(f) => f.commit(),
+        }
+    }
+}
+
+impl Write for Sink {
+    fn write(&mut self, buf: &[u8]) -> std::io::Result<usize> {
+        match self {
+            Sink::Stdout(w) => w.write(buf),
+            Sink::File(f) => f.write(buf),
+        }
+    }
+    fn flush(&mut self) -> std::io::Result<()> {
+        match self {
+            Sink::Stdout(w) => w.flush(),
+            Sink::File(f) => f.flush(),
+        }
+    }
+}

@@ -1,0 +1,58 @@
+//! Writing results: number formatting, CSV and JSON tables, atomic files.
+
+pub mod atomic;
+pub mod modes_table;
+pub mod number;
+
+pub use atomic::{check_not_input, AtomicFile, Sink};
+pub use modes_table::{ModesJson, ModesTable};
+
+/// Output table format.
+///
+/// # Example
+/// ```
+/// use provenance_core::output::Format;
+/// assert_eq!("json".parse::<Format>().unwrap(), Format::Json);
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum Format {
+    /// Comma-separated, one row per sample, flat column names.
+    #[default]
+    Csv,
+    /// A JSON array, one object per sample.
+    Json,
+}
+
+impl std::str::FromStr for Format {
+    type Err = String;
+    fn from_str(s: &str) -> Result<Self, Self::Err> {
+        match s.to_ascii_lowercase().as_str() {
+            "csv" => Ok(Format::Csv),
+            "json" => Ok(Format::Json),
+            _ => Err(format!("unknown format {s:?}, expected csv or json")),
+        }
+    }
+}
+
+/// Append one CSV cell, quoting it when it holds a comma, quote or line break.
+///
+/// # Example
+/// ```
+/// let mut b = Vec::new();
+/// provenance_core::output::push_csv_cell(&mut b, "a,\"b\"");
+/// assert_eq!(b, b"\"a,\"\"b\"\"\"");
+/// ```
+pub fn push_csv_cell(buf: &mut Vec<u8>, s: &str) {
+    if s.bytes().any(|b| matches!(b, b',' | b'"' | b'\n' | b'\r')) {
+        buf.push(b'"');
+        for b in s.bytes() {
+            if b == b'"' {
+                buf.push(b'"');
+            }
+            buf.push(b);
+        }
+        buf.push(b'"');
+    } else {
+        buf.extend_from_slice(s.as_bytes());
+    }
+}

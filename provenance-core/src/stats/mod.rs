@@ -1,0 +1,6 @@
+//! Statistics: special functions and counting error of point counts.
+
+pub mod counting;
+pub mod special;
+
+pub use counting::{clopper_pearson, points_needed, sd_percent, wilson, Interval, Z95};
