@@ -120,6 +120,8 @@ impl std::str::FromStr for Diagram {
         Diagram::ALL
             .into_iter()
             .find(|d| d.id() == key)
-            .ok_or_else(|| format!("unknown diagram {s:?}, expected one of qfl, qmflt, qmpk, qplvlsm, lmlvls"))
+            .ok_or_else(|| {
+                format!("unknown diagram {s:?}, expected one of qfl, qmflt, qmpk, qplvlsm, lmlvls")
+            })
     }
 }

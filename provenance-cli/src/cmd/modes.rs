@@ -9,9 +9,11 @@ pub fn run(a: ModesArgs) -> Result<()> {
     let mut sink = Sink::open(a.output.output.as_deref(), &super::input_paths(&a.input))?;
     let reader = super::open_counts(&a.input)?;
     let options = ModesOptions {
-        format: a.output.format.parse().map_err(|message| {
-            provenance_core::error::Error::Usage { message }
-        })?,
+        format: a
+            .output
+            .format
+            .parse()
+            .map_err(|message| provenance_core::error::Error::Usage { message })?,
         intervals: a.intervals,
     };
     let name = sink.name();

@@ -7,13 +7,20 @@ pub const MAX_COUNT: f64 = 10_000_000.0;
 /// Why a cell was refused: the text for "expected …".
 pub(crate) type Expected = &'static str;
 
-const WHOLE: Expected = "a whole number of points from 0 to 10000000 (counts mode; use --percent for percentages)";
+const WHOLE: Expected =
+    "a whole number of points from 0 to 10000000 (counts mode; use --percent for percentages)";
 const PERCENT: Expected = "a percentage from 0 to 100";
 const POINTS: Expected = "a whole number of points counted, greater than 0";
 
 fn trim(bytes: &[u8]) -> &[u8] {
-    let start = bytes.iter().position(|b| !b.is_ascii_whitespace()).unwrap_or(bytes.len());
-    let end = bytes.iter().rposition(|b| !b.is_ascii_whitespace()).map_or(start, |e| e + 1);
+    let start = bytes
+        .iter()
+        .position(|b| !b.is_ascii_whitespace())
+        .unwrap_or(bytes.len());
+    let end = bytes
+        .iter()
+        .rposition(|b| !b.is_ascii_whitespace())
+        .map_or(start, |e| e + 1);
     &bytes[start..end]
 }
 
@@ -87,7 +94,9 @@ mod tests {
 
     #[test]
     fn counts_refuse_bad_values() {
-        for bad in ["-1", "1.5", "NaN", "inf", "abc", "1e12", "10000001", "99999999"] {
+        for bad in [
+            "-1", "1.5", "NaN", "inf", "abc", "1e12", "10000001", "99999999",
+        ] {
             assert_eq!(count(bad.as_bytes(), false), Err(WHOLE), "{bad}");
         }
     }

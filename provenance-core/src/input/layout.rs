@@ -53,15 +53,18 @@ pub(crate) fn resolve(
     if let Some(m) = mapping {
         for mc in &m.columns {
             let key = normalize_header(&mc.column);
-            let i = keys.iter().position(|k| *k == key).ok_or_else(|| Error::Malformed {
-                at: Location::new(&m.file).line(mc.line),
-                message: format!(
-                    "column {:?} mapped to {} is not in {file}",
-                    mc.column,
-                    mc.category.symbol()
-                ),
-                expected: format!("a column of {file}'s header {headers:?}"),
-            })?;
+            let i = keys
+                .iter()
+                .position(|k| *k == key)
+                .ok_or_else(|| Error::Malformed {
+                    at: Location::new(&m.file).line(mc.line),
+                    message: format!(
+                        "column {:?} mapped to {} is not in {file}",
+                        mc.column,
+                        mc.category.symbol()
+                    ),
+                    expected: format!("a column of {file}'s header {headers:?}"),
+                })?;
             if roles[i] != Role::Meta {
                 return Err(Error::Malformed {
                     at: Location::new(&m.file).line(mc.line),
@@ -129,7 +132,9 @@ pub(crate) fn resolve(
             missing: missing.join(", "),
         });
     }
-    let meta = (0..headers.len()).filter(|i| roles[*i] == Role::Meta).collect();
+    let meta = (0..headers.len())
+        .filter(|i| roles[*i] == Role::Meta)
+        .collect();
     Ok(Layout {
         roles,
         id,

@@ -93,10 +93,14 @@ impl Mapping {
             expected: expected.to_string(),
         };
         let table: toml::Table = text.parse().map_err(|e: toml::de::Error| {
-            let line = e
-                .span()
-                .map_or(1, |s| text[..s.start.min(text.len())].lines().count().max(1) as u64);
-            bad(line, format!("not valid TOML ({})", e.message()), EXPECTED_TOP)
+            let line = e.span().map_or(1, |s| {
+                text[..s.start.min(text.len())].lines().count().max(1) as u64
+            });
+            bad(
+                line,
+                format!("not valid TOML ({})", e.message()),
+                EXPECTED_TOP,
+            )
         })?;
         let mut m = Mapping {
             file: file.to_string(),
@@ -135,7 +139,9 @@ impl Mapping {
                                 .iter()
                                 .map(|v| v.as_str())
                                 .collect::<Option<Vec<_>>>()
-                                .ok_or_else(|| bad(line, format!("{cat} = {cols}"), EXPECTED_VALUE))?,
+                                .ok_or_else(|| {
+                                    bad(line, format!("{cat} = {cols}"), EXPECTED_VALUE)
+                                })?,
                             _ => return Err(bad(line, format!("{cat} = {cols}"), EXPECTED_VALUE)),
                         };
                         if names.is_empty() || names.iter().any(|n| n.trim().is_empty()) {
@@ -199,7 +205,10 @@ mod tests {
     #[test]
     fn column_mapped_twice_is_refused() {
         let e = Mapping::parse("m.toml", "[categories]\nQm = \"a\"\nQp = \"A\"\n").unwrap_err();
-        assert!(e.to_string().contains("already mapped to Qm on line 2"), "{e}");
+        assert!(
+            e.to_string().contains("already mapped to Qm on line 2"),
+            "{e}"
+        );
     }
 
     #[test]

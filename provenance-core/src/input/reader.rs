@@ -145,7 +145,11 @@ impl CountReader {
         if bom {
             head.drain(..3);
         }
-        let header_start = if bom && header_start >= 3 { header_start - 3 } else { header_start };
+        let header_start = if bom && header_start >= 3 {
+            header_start - 3
+        } else {
+            header_start
+        };
         if head.contains(&0) || std::str::from_utf8(&head).is_err() {
             return Err(Error::NotText {
                 at: Location::new(file).line(1),

@@ -8,7 +8,10 @@ fn resolved(p: &Path) -> PathBuf {
     if let Ok(c) = p.canonicalize() {
         return c;
     }
-    let parent = p.parent().filter(|q| !q.as_os_str().is_empty()).unwrap_or(Path::new("."));
+    let parent = p
+        .parent()
+        .filter(|q| !q.as_os_str().is_empty())
+        .unwrap_or(Path::new("."));
     match (parent.canonicalize(), p.file_name()) {
         (Ok(dir), Some(name)) => dir.join(name),
         _ => p.to_path_buf(),
@@ -127,10 +130,14 @@ impl Sink {
     /// equal to one of `inputs`.
     pub fn open(path: Option<&Path>, inputs: &[&Path]) -> Result<Sink> {
         match path {
-            None => Ok(Sink::Stdout(BufWriter::with_capacity(1 << 16, std::io::stdout()))),
-            Some(p) if p.as_os_str() == "-" => {
-                Ok(Sink::Stdout(BufWriter::with_capacity(1 << 16, std::io::stdout())))
-            }
+            None => Ok(Sink::Stdout(BufWriter::with_capacity(
+                1 << 16,
+                std::io::stdout(),
+            ))),
+            Some(p) if p.as_os_str() == "-" => Ok(Sink::Stdout(BufWriter::with_capacity(
+                1 << 16,
+                std::io::stdout(),
+            ))),
             Some(p) => {
                 check_not_input(p, inputs)?;
                 Ok(Sink::File(AtomicFile::create(p)?))

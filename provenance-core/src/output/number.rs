@@ -75,7 +75,7 @@ pub fn push_fixed(buf: &mut Vec<u8>, x: f64, decimals: u32) {
 /// assert_eq!(b, b"412");
 /// ```
 pub fn push_points(buf: &mut Vec<u8>, n: f64) {
-    if n.fract() == 0.0 && n >= 0.0 && n < 1e18 {
+    if n.fract() == 0.0 && (0.0..1e18).contains(&n) {
         push_u64(buf, n as u64);
     } else {
         push_fixed(buf, n, PERCENT_DECIMALS);
@@ -94,7 +94,9 @@ mod tests {
 
     #[test]
     fn fixed_matches_std_formatting_away_from_ties() {
-        for x in [0.0, 0.004, 0.006, 1.0, 9.995_1, 12.345_678, 99.999, 100.0, 1234.5] {
+        for x in [
+            0.0, 0.004, 0.006, 1.0, 9.995_1, 12.345_678, 99.999, 100.0, 1234.5,
+        ] {
             assert_eq!(fixed(x, 2), format!("{x:.2}"), "{x}");
             assert_eq!(fixed(-x, 2).trim_start_matches('-'), format!("{x:.2}"));
         }

@@ -59,7 +59,7 @@ pub fn sd_percent(p: f64, n: f64) -> f64 {
 /// assert_eq!(points_needed(10.0, 2.0), Some(900));
 /// ```
 pub fn points_needed(p: f64, two_sigma: f64) -> Option<u64> {
-    if !(two_sigma > 0.0 && two_sigma.is_finite()) || !(0.0..=100.0).contains(&p) {
+    if !(two_sigma > 0.0 && two_sigma.is_finite() && (0.0..=100.0).contains(&p)) {
         return None;
     }
     let n = 4.0 * p * (100.0 - p) / (two_sigma * two_sigma);
