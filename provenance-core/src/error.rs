@@ -27,8 +27,8 @@ pub struct Location {
     pub file: String,
     /// 1-based line, as an editor shows it.
     pub line: Option<u64>,
-    /// The column, when one cell is at fault.
-    pub column: Option<Column>,
+    /// The column, when one cell is at fault (boxed to keep errors small).
+    pub column: Option<Box<Column>>,
 }
 
 impl Location {
@@ -49,7 +49,7 @@ impl Location {
 
     /// The same location at a column.
     pub fn column(mut self, column: Column) -> Self {
-        self.column = Some(column);
+        self.column = Some(Box::new(column));
         self
     }
 }
