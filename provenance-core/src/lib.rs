@@ -10,6 +10,8 @@
 //! - [`modes`] recalculates each diagram's poles and the usual grain ratios.
 //! - [`stats`] gives counting error: σ (Van der Plas & Tobi 1965), Wilson and
 //!   Clopper-Pearson intervals, and the points needed for a target precision.
+//! - [`naming`] names each sample under Folk (1980), Garzanti (2019) and Pettijohn, Potter &
+//!   Siever (1987), with the poles and the rule behind every name.
 //! - [`output`] and [`batch`] write tables as CSV or JSON, streaming and atomically.
 //!
 //! ## Example
@@ -42,6 +44,7 @@ pub mod geometry;
 pub mod input;
 pub mod logratio;
 pub mod modes;
+pub mod naming;
 pub mod output;
 pub mod stats;
 
@@ -53,4 +56,5 @@ pub mod prelude {
     pub use crate::error::{Error, Result};
     pub use crate::input::{CountReader, Mapping, ReadOptions};
     pub use crate::modes::{DiagramMode, Ratios, SampleModes};
+    pub use crate::naming::{Naming, NamingScheme, SchemeSet, Verdict};
 }

@@ -2,10 +2,12 @@
 
 pub mod atomic;
 pub mod modes_table;
+pub mod names_table;
 pub mod number;
 
 pub use atomic::{check_not_input, AtomicFile, Sink};
 pub use modes_table::{ModesJson, ModesTable};
+pub use names_table::{NamesJson, NamesTable};
 
 /// Output table format.
 ///
