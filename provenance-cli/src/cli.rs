@@ -19,6 +19,13 @@ pub enum Command {
     Modes(ModesArgs),
     /// Points to count for a target precision (Van der Plas & Tobi 1965).
     Plan(PlanArgs),
+    /// Sandstone names under Folk (1980), Garzanti (2019) and Pettijohn, Potter & Siever (1987).
+    ///
+    /// A name is blank (null in JSON) when a scheme cannot apply, with the reason in its rule
+    /// column; Pettijohn, Potter & Siever (1987) need a matrix column. Chert defaults:
+    /// folk=lithic (Folk 1980 puts chert with the rock fragments), garzanti=quartz (as in
+    /// Dickinson's QFL) and pettijohn=quartz (from memory).
+    Name(NameArgs),
 }
 
 /// Where the counts come from and how to read them.
@@ -67,4 +74,21 @@ pub struct PlanArgs {
     /// default: a table from 5 to 50.
     #[arg(long = "proportion", value_name = "P")]
     pub proportions: Vec<f64>,
+}
+
+/// `sandprov name`.
+#[derive(Debug, Args)]
+pub struct NameArgs {
+    #[command(flatten)]
+    pub input: InputArgs,
+    #[command(flatten)]
+    pub output: OutputArgs,
+    /// Instead of the table, write per sample the recalculated poles and the rule behind each
+    /// name, in words (to standard output or OUT; not with --format).
+    #[arg(long, conflicts_with = "format")]
+    pub explain: bool,
+    /// Where chert goes in one scheme, as SCHEME=WHERE with WHERE one of quartz, lithic, omit
+    /// (repeatable), e.g. --chert garzanti=lithic.
+    #[arg(long = "chert", value_name = "SCHEME=WHERE")]
+    pub chert: Vec<String>,
 }

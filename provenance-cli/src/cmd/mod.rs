@@ -1,6 +1,7 @@
 //! One module per subcommand; each maps its arguments to core calls.
 
 mod modes;
+mod name;
 mod plan;
 
 use crate::cli::{Cli, Command, InputArgs};
@@ -12,6 +13,7 @@ pub fn run(cli: Cli) -> Result<()> {
     match cli.command {
         Command::Modes(a) => modes::run(a),
         Command::Plan(a) => plan::run(a),
+        Command::Name(a) => name::run(a),
     }
 }
 
