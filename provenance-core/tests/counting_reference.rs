@@ -64,7 +64,12 @@ fn wilson_and_clopper_pearson_match_scipy() {
         let (k, n) = (r[0], r[1]);
         let w = wilson(k, n, Z95);
         let c = clopper_pearson(k, n, 0.05);
-        for (ours, scipy) in [(w.lower, r[2]), (w.upper, r[3]), (c.lower, r[4]), (c.upper, r[5])] {
+        for (ours, scipy) in [
+            (w.lower, r[2]),
+            (w.upper, r[3]),
+            (c.lower, r[4]),
+            (c.upper, r[5]),
+        ] {
             assert!(
                 (ours - 100.0 * scipy).abs() < 1e-7,
                 "k={k} n={n}: ours {ours} vs SciPy {}",

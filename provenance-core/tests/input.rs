@@ -26,7 +26,9 @@ fn read(text: &str) -> Result<Vec<Sample>, Error> {
 }
 
 fn refusal(text: &str) -> String {
-    read(text).expect_err("the table should be refused").to_string()
+    read(text)
+        .expect_err("the table should be refused")
+        .to_string()
 }
 
 // ---- dialects -------------------------------------------------------------------------
@@ -59,7 +61,14 @@ fn spreadsheet_trailer_rows_of_empty_cells_are_skipped() {
 #[test]
 fn decimal_commas_are_read_with_semicolons_in_percent_mode() {
     let text = "sample;Qm;Qp;C;P;K;Lv;Ls;Lm;n\nA;50,5;4,5;0;20;5;10;5;5;400\n";
-    let s = read_with(text.as_bytes(), ReadOptions { percent: true, mapping: None }).unwrap();
+    let s = read_with(
+        text.as_bytes(),
+        ReadOptions {
+            percent: true,
+            mapping: None,
+        },
+    )
+    .unwrap();
     assert_eq!(s[0].counting, Counting::FromPercent { points: 400.0 });
     // 50.5% of 400 points = 202 estimated points.
     assert!((s[0].framework.qm - 202.0).abs() < 1e-9);
@@ -92,10 +101,21 @@ fn blank_count_cells_count_as_zero() {
 #[test]
 fn percent_mode_without_points_has_no_counting_statistics() {
     let text = format!("{HEAD}\nA,60,5,5,10,10,5,3,2\n");
-    let s = read_with(text.as_bytes(), ReadOptions { percent: true, mapping: None }).unwrap();
+    let s = read_with(
+        text.as_bytes(),
+        ReadOptions {
+            percent: true,
+            mapping: None,
+        },
+    )
+    .unwrap();
     assert_eq!(s[0].counting, Counting::Unknown);
     let m = provenance_core::modes::SampleModes::of(&s[0]);
-    assert!(m.get(provenance_core::diagram::Diagram::Qfl).unwrap().sd().is_none());
+    assert!(m
+        .get(provenance_core::diagram::Diagram::Qfl)
+        .unwrap()
+        .sd()
+        .is_none());
 }
 
 #[test]
@@ -106,7 +126,14 @@ fn mapping_sums_sub_categories() {
     )
     .unwrap();
     let text = "Slide,Qm nu,Qm u,Qp,P,K,Lv felsitic,Lv lathwork,Ls,Lm,Qm\nS1,100,50,10,30,20,12,8,5,5,999\n";
-    let s = read_with(text.as_bytes(), ReadOptions { percent: false, mapping: Some(mapping) }).unwrap();
+    let s = read_with(
+        text.as_bytes(),
+        ReadOptions {
+            percent: false,
+            mapping: Some(mapping),
+        },
+    )
+    .unwrap();
     assert_eq!(s[0].id, "S1");
     assert_eq!(s[0].framework.qm, 150.0);
     assert_eq!(s[0].framework.lv, 20.0);
@@ -118,9 +145,15 @@ fn mapping_sums_sub_categories() {
 fn mapping_naming_an_absent_column_names_the_mapping_line() {
     let mapping = Mapping::parse("lab.toml", "[categories]\nQm = \"Qm total\"\n").unwrap();
     let text = format!("{HEAD}\nA,1,2,3,4,5,6,7,8\n");
-    let e = read_with(text.as_bytes(), ReadOptions { percent: false, mapping: Some(mapping) })
-        .unwrap_err()
-        .to_string();
+    let e = read_with(
+        text.as_bytes(),
+        ReadOptions {
+            percent: false,
+            mapping: Some(mapping),
+        },
+    )
+    .unwrap_err()
+    .to_string();
     assert!(e.starts_with("lab.toml, line 2:"), "{e}");
     assert!(e.contains("\"Qm total\""), "{e}");
 }
@@ -130,13 +163,23 @@ fn mapping_naming_an_absent_column_names_the_mapping_line() {
 #[test]
 fn empty_id_is_refused_with_its_line_and_column() {
     let e = refusal(&format!("{HEAD}\nA,1,1,1,1,1,1,1,1\n  ,1,1,1,1,1,1,1,1\n"));
-    assert_eq!(e, "t.csv, line 3, column 1 (\"sample\"): the sample id is empty, expected a non-empty id");
+    assert_eq!(
+        e,
+        "t.csv, line 3, column 1 (\"sample\"): the sample id is empty, expected a non-empty id"
+    );
 }
 
 #[test]
 fn duplicate_id_names_both_lines() {
-    let e = refusal(&format!("{HEAD}\nA,1,1,1,1,1,1,1,1\nB,1,1,1,1,1,1,1,1\nA,2,2,2,2,2,2,2,2\n"));
-    assert!(e.starts_with("t.csv, line 4, column 1 (\"sample\"): sample id \"A\" was already used on line 2"), "{e}");
+    let e = refusal(&format!(
+        "{HEAD}\nA,1,1,1,1,1,1,1,1\nB,1,1,1,1,1,1,1,1\nA,2,2,2,2,2,2,2,2\n"
+    ));
+    assert!(
+        e.starts_with(
+            "t.csv, line 4, column 1 (\"sample\"): sample id \"A\" was already used on line 2"
+        ),
+        "{e}"
+    );
 }
 
 #[test]
@@ -157,21 +200,38 @@ fn bad_counts_are_refused_with_location_value_and_expectation() {
 #[test]
 fn bad_percentages_are_refused() {
     let text = format!("{HEAD}\nA,101,1,1,1,1,1,1,1\n");
-    let e = read_with(text.as_bytes(), ReadOptions { percent: true, mapping: None }).unwrap_err();
-    assert!(e.to_string().contains("column 2 (\"Qm\"): found \"101\", expected a percentage from 0 to 100"), "{e}");
+    let e = read_with(
+        text.as_bytes(),
+        ReadOptions {
+            percent: true,
+            mapping: None,
+        },
+    )
+    .unwrap_err();
+    assert!(
+        e.to_string()
+            .contains("column 2 (\"Qm\"): found \"101\", expected a percentage from 0 to 100"),
+        "{e}"
+    );
 }
 
 #[test]
 fn ragged_rows_are_refused() {
     let e = refusal(&format!("{HEAD}\nA,1,1,1,1,1,1,1,1\nB,1,1,1\n"));
-    assert_eq!(e, "t.csv, line 3: the row has 4 cells, expected 9 as in the header");
+    assert_eq!(
+        e,
+        "t.csv, line 3: the row has 4 cells, expected 9 as in the header"
+    );
     let e = refusal(&format!("{HEAD}\nA,1,1,1,1,1,1,1,1,9\n"));
     assert!(e.contains("has 10 cells, expected 9"), "{e}");
 }
 
 #[test]
 fn empty_files_are_refused() {
-    assert_eq!(refusal(""), "t.csv: the file is empty, expected a header line and one row per sample");
+    assert_eq!(
+        refusal(""),
+        "t.csv: the file is empty, expected a header line and one row per sample"
+    );
     assert!(refusal("\n\n  \n").contains("the file is empty"));
 }
 
@@ -188,17 +248,27 @@ fn tables_without_count_columns_are_refused() {
 #[test]
 fn repeated_category_columns_are_refused() {
     let e = refusal("sample,Qm,Qp,P,K,Lv,Ls,Lm,q_m\nA,1,1,1,1,1,1,1,1\n");
-    assert!(e.starts_with("t.csv, line 1, column 9 (\"q_m\"): column \"Qm\" repeats column 2"), "{e}");
+    assert!(
+        e.starts_with("t.csv, line 1, column 9 (\"q_m\"): column \"Qm\" repeats column 2"),
+        "{e}"
+    );
 }
 
 #[test]
 fn binary_garbage_is_refused_as_not_text() {
     let e = read_with(b"\x00\x01\x02\xff\xfe", ReadOptions::default()).unwrap_err();
-    assert_eq!(e.to_string(), "t.csv, line 1: the bytes are not UTF-8 text, expected a CSV table");
+    assert_eq!(
+        e.to_string(),
+        "t.csv, line 1: the bytes are not UTF-8 text, expected a CSV table"
+    );
     let mut text = format!("{HEAD},notes\nA,1,1,1,1,1,1,1,1,").into_bytes();
     text.extend_from_slice(b"\xff\xfe\n");
     let e = read_with(&text, ReadOptions::default()).unwrap_err();
-    assert!(e.to_string().starts_with("t.csv, line 2, column 10 (\"notes\"): the bytes are not UTF-8"), "{e}");
+    assert!(
+        e.to_string()
+            .starts_with("t.csv, line 2, column 10 (\"notes\"): the bytes are not UTF-8"),
+        "{e}"
+    );
 }
 
 #[test]
@@ -212,7 +282,12 @@ fn all_zero_framework_is_a_flagged_row_with_null_modes() {
 #[test]
 fn the_first_refusal_ends_the_stream() {
     let text = format!("{HEAD}\nA,1,1,1,1,1,1,1,1\nB,x,1,1,1,1,1,1,1\nC,1,1,1,1,1,1,1,1\n");
-    let r = CountReader::from_reader("t.csv", std::io::Cursor::new(text.into_bytes()), ReadOptions::default()).unwrap();
+    let r = CountReader::from_reader(
+        "t.csv",
+        std::io::Cursor::new(text.into_bytes()),
+        ReadOptions::default(),
+    )
+    .unwrap();
     let items: Vec<_> = r.collect();
     assert_eq!(items.len(), 2);
     assert!(items[0].is_ok() && items[1].is_err());
@@ -220,9 +295,12 @@ fn the_first_refusal_ends_the_stream() {
 
 #[test]
 fn a_missing_file_is_an_io_error_naming_the_path() {
-    let e = CountReader::from_path(std::path::Path::new("/no/such/counts.csv"), ReadOptions::default())
-        .err()
-        .unwrap();
+    let e = CountReader::from_path(
+        std::path::Path::new("/no/such/counts.csv"),
+        ReadOptions::default(),
+    )
+    .err()
+    .unwrap();
     assert_eq!(e.kind(), provenance_core::error::ErrorKind::Io);
     assert!(e.to_string().starts_with("cannot read /no/such/counts.csv"));
 }

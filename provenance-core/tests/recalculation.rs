@@ -7,7 +7,16 @@ use provenance_core::prelude::*;
 fn slide() -> Sample {
     let mut s = Sample::counted(
         "W-1",
-        Framework { qm: 180.0, qp: 20.0, c: 12.0, p: 60.0, k: 28.0, lv: 50.0, ls: 30.0, lm: 20.0 },
+        Framework {
+            qm: 180.0,
+            qp: 20.0,
+            c: 12.0,
+            p: 60.0,
+            k: 28.0,
+            lv: 50.0,
+            ls: 30.0,
+            lm: 20.0,
+        },
     );
     s.other.matrix = Some(100.0);
     s
@@ -37,13 +46,21 @@ fn qmflt_dickinson_1985() {
 #[test]
 fn qmpk_dickinson_suczek_1979() {
     // Qm 180, P 60, K 28; n = 268.
-    assert_mode(Diagram::Qmpk, 268.0, [18000.0 / 268.0, 6000.0 / 268.0, 2800.0 / 268.0]);
+    assert_mode(
+        Diagram::Qmpk,
+        268.0,
+        [18000.0 / 268.0, 6000.0 / 268.0, 2800.0 / 268.0],
+    );
 }
 
 #[test]
 fn qplvlsm_dickinson_suczek_1979() {
     // Qp = Qp + C = 32, Lv = 50, Lsm = Ls + Lm = 50; n = 132.
-    assert_mode(Diagram::Qplvlsm, 132.0, [3200.0 / 132.0, 5000.0 / 132.0, 5000.0 / 132.0]);
+    assert_mode(
+        Diagram::Qplvlsm,
+        132.0,
+        [3200.0 / 132.0, 5000.0 / 132.0, 5000.0 / 132.0],
+    );
 }
 
 #[test]
@@ -69,10 +86,20 @@ fn ratios_and_matrix_hand_worked() {
 #[test]
 fn a_diagram_without_points_is_null_not_nan() {
     // Only quartz and feldspar: no lithics at all.
-    let s = Sample::counted("W-2", Framework { qm: 250.0, p: 50.0, ..Default::default() });
+    let s = Sample::counted(
+        "W-2",
+        Framework {
+            qm: 250.0,
+            p: 50.0,
+            ..Default::default()
+        },
+    );
     let m = SampleModes::of(&s);
     assert!(m.get(Diagram::Qplvlsm).is_none());
     assert!(m.get(Diagram::Lmlvls).is_none());
     assert_eq!(m.ratios.lv_l, None);
-    assert_eq!(m.get(Diagram::Qfl).unwrap().percent.parts(), [250.0 / 3.0, 50.0 / 3.0, 0.0]);
+    assert_eq!(
+        m.get(Diagram::Qfl).unwrap().percent.parts(),
+        [250.0 / 3.0, 50.0 / 3.0, 0.0]
+    );
 }

@@ -22,7 +22,14 @@ pub fn sandprov_path() -> &'static Path {
         let cargo = std::env::var("CARGO").unwrap_or_else(|_| "cargo".into());
         let release = !cfg!(debug_assertions);
         let mut c = Command::new(cargo);
-        c.args(["build", "--quiet", "-p", "provenance-cli", "--bin", "sandprov"]);
+        c.args([
+            "build",
+            "--quiet",
+            "-p",
+            "provenance-cli",
+            "--bin",
+            "sandprov",
+        ]);
         if release {
             c.arg("--release");
         }

@@ -8,12 +8,19 @@ const HEAD: &str = "sample,Qm,Qp,C,P,K,Lv,Ls,Lm,formation";
 #[test]
 fn modes_csv_on_the_demo_has_one_row_per_sample() {
     let sb = Sandbox::new();
-    let out = sb.sandprov().arg("modes").arg(demo_counts()).output().unwrap();
+    let out = sb
+        .sandprov()
+        .arg("modes")
+        .arg(demo_counts())
+        .output()
+        .unwrap();
     assert!(out.status.success());
     let text = String::from_utf8(out.stdout).unwrap();
     let mut lines = text.lines();
     let header = lines.next().unwrap();
-    assert!(header.starts_with("sample,formation,height_m,notes,framework_total,matrix_pct,qfl_n,qfl_Q,qfl_Q_sd"));
+    assert!(header.starts_with(
+        "sample,formation,height_m,notes,framework_total,matrix_pct,qfl_n,qfl_Q,qfl_Q_sd"
+    ));
     assert_eq!(lines.count(), 40);
 }
 
@@ -21,9 +28,21 @@ fn modes_csv_on_the_demo_has_one_row_per_sample() {
 fn modes_json_is_the_stable_interface() {
     let sb = Sandbox::new();
     // 252 + 83 + 77 = 412 points: Q 61.17, F 20.15, L 18.69 (hand-worked, as in the interface).
-    let input = sb.write("c.csv", format!("{HEAD}\nKR-1,240,8,4,50,33,40,20,17,Upper\n"));
-    let out = sb.sandprov().args(["modes", "--format", "json"]).arg(&input).output().unwrap();
-    assert!(out.status.success(), "{}", String::from_utf8_lossy(&out.stderr));
+    let input = sb.write(
+        "c.csv",
+        format!("{HEAD}\nKR-1,240,8,4,50,33,40,20,17,Upper\n"),
+    );
+    let out = sb
+        .sandprov()
+        .args(["modes", "--format", "json"])
+        .arg(&input)
+        .output()
+        .unwrap();
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
     let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
     let s = &v[0];
     assert_eq!(s["sample"], "KR-1");
@@ -51,13 +70,18 @@ fn modes_json_is_the_stable_interface() {
 #[test]
 fn bad_input_exits_3_and_names_the_place() {
     let sb = Sandbox::new();
-    let input = sb.write("bad.csv", format!("{HEAD}\nA,1,1,1,1,1,1,1,1,x\nB,1,1,1,-4,1,1,1,1,y\n"));
+    let input = sb.write(
+        "bad.csv",
+        format!("{HEAD}\nA,1,1,1,1,1,1,1,1,x\nB,1,1,1,-4,1,1,1,1,y\n"),
+    );
     sb.sandprov()
         .arg("modes")
         .arg(&input)
         .assert()
         .code(3)
-        .stderr(predicate::str::contains("bad.csv, line 3, column 5 (\"P\"): found \"-4\", expected a whole number"));
+        .stderr(predicate::str::contains(
+            "bad.csv, line 3, column 5 (\"P\"): found \"-4\", expected a whole number",
+        ));
 }
 
 #[test]
@@ -69,8 +93,17 @@ fn failed_runs_leave_no_output_file() {
     }
     text.push_str("LAST,1,1,1,1,1,1,1,oops,x\n");
     let input = sb.write("big.csv", text);
-    sb.sandprov().arg("modes").arg(&input).args(["-o", "out.csv"]).assert().code(3);
-    assert_eq!(sb.files(), ["big.csv"], "no partial or temporary file is left");
+    sb.sandprov()
+        .arg("modes")
+        .arg(&input)
+        .args(["-o", "out.csv"])
+        .assert()
+        .code(3);
+    assert_eq!(
+        sb.files(),
+        ["big.csv"],
+        "no partial or temporary file is left"
+    );
 }
 
 #[test]
@@ -90,8 +123,12 @@ fn an_output_equal_to_the_input_is_refused() {
 fn successful_output_is_written_whole() {
     let sb = Sandbox::new();
     sb.write("c.csv", format!("{HEAD}\nA,1,1,1,1,1,1,1,1,x\n"));
-    sb.sandprov().args(["modes", "c.csv", "-o", "m.json", "--format", "json"]).assert().success();
-    let v: serde_json::Value = serde_json::from_slice(&std::fs::read(sb.path("m.json")).unwrap()).unwrap();
+    sb.sandprov()
+        .args(["modes", "c.csv", "-o", "m.json", "--format", "json"])
+        .assert()
+        .success();
+    let v: serde_json::Value =
+        serde_json::from_slice(&std::fs::read(sb.path("m.json")).unwrap()).unwrap();
     assert_eq!(v.as_array().unwrap().len(), 1);
     assert_eq!(sb.files(), ["c.csv", "m.json"]);
 }
@@ -132,7 +169,11 @@ fn binary_garbage_is_refused_without_a_panic() {
 fn intervals_add_wilson_and_clopper_pearson_columns() {
     let sb = Sandbox::new();
     sb.write("c.csv", format!("{HEAD}\nA,150,0,0,150,0,0,0,0,x\n"));
-    let out = sb.sandprov().args(["modes", "c.csv", "--intervals"]).output().unwrap();
+    let out = sb
+        .sandprov()
+        .args(["modes", "c.csv", "--intervals"])
+        .output()
+        .unwrap();
     let text = String::from_utf8(out.stdout).unwrap();
     let rows: Vec<Vec<&str>> = text.lines().map(|l| l.split(',').collect()).collect();
     let col = |name: &str| rows[0].iter().position(|h| *h == name).unwrap();
@@ -153,5 +194,8 @@ fn plan_gives_points_needed() {
         .assert()
         .success()
         .stdout(predicate::str::contains("50,5,400"));
-    sb.sandprov().args(["plan", "--two-sigma", "0"]).assert().code(2);
+    sb.sandprov()
+        .args(["plan", "--two-sigma", "0"])
+        .assert()
+        .code(2);
 }

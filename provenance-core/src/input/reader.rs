@@ -181,7 +181,11 @@ mod crlf_tests {
     #[test]
     fn crlf_becomes_lf_at_any_read_size() {
         for chunk in [1, 2, 3, 7, 4096] {
-            assert_eq!(convert(b"a\r\nb\rc\r\n\r", chunk), b"a\nb\rc\n\r", "chunk {chunk}");
+            assert_eq!(
+                convert(b"a\r\nb\rc\r\n\r", chunk),
+                b"a\nb\rc\n\r",
+                "chunk {chunk}"
+            );
         }
     }
 }
