@@ -66,36 +66,61 @@ where
     out.write_all(begin).map_err(werr)?;
     let mut total = 0usize;
     let mut wrote = false;
-    let mut chunk: Vec<Sample> = Vec::with_capacity(CHUNK_ROWS);
+    let mut records: Vec<csv::ByteRecord> = Vec::new();
     loop {
-        chunk.clear();
-        for r in reader.by_ref().take(CHUNK_ROWS) {
-            chunk.push(r?);
+        // Serial part: split rows and check ids for uniqueness, the one check that needs
+        // earlier rows. A refusal here ends the chunk at the offending row.
+        let mut filled = 0;
+        let mut refusal = None;
+        while filled < CHUNK_ROWS {
+            if records.len() == filled {
+                records.push(csv::ByteRecord::new());
+            }
+            match reader.read_raw(&mut records[filled]) {
+                Ok(false) => break,
+                Ok(true) => {}
+                Err(e) => {
+                    refusal = Some(e);
+                    break;
+                }
+            }
+            if let Err(e) = reader.check_unique(&records[filled]) {
+                refusal = Some(e);
+                break;
+            }
+            filled += 1;
         }
-        if chunk.is_empty() {
-            break;
-        }
-        let parts: Vec<Vec<u8>> = chunk
+        // Parallel part: validate, compute and format; the first refusal in row order wins.
+        let parser = reader.parser();
+        let parts: Vec<Result<Vec<u8>>> = records[..filled]
             .par_chunks(512)
             .map(|part| {
-                let mut buf = Vec::with_capacity(part.len() * 256);
-                for (i, s) in part.iter().enumerate() {
+                let mut buf = Vec::with_capacity(part.len() * 320);
+                for (i, rec) in part.iter().enumerate() {
+                    let sample = parser.parse_record(rec)?;
                     if i > 0 {
                         buf.extend_from_slice(sep);
                     }
-                    each(s, &mut buf);
+                    each(&sample, &mut buf);
                 }
-                buf
+                Ok(buf)
             })
             .collect();
-        for p in &parts {
+        for p in parts {
+            let p = p?;
             if wrote {
                 out.write_all(sep).map_err(werr)?;
             }
-            out.write_all(p).map_err(werr)?;
+            out.write_all(&p).map_err(werr)?;
             wrote = true;
         }
-        total += chunk.len();
+        total += filled;
+        if let Some(e) = refusal {
+            return Err(e);
+        }
+        if filled < CHUNK_ROWS {
+            break;
+        }
     }
     out.write_all(end).map_err(werr)?;
     Ok(total)

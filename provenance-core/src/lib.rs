@@ -44,6 +44,7 @@ pub mod logratio;
 pub mod modes;
 pub mod output;
 pub mod stats;
+pub mod synthetic;
 
 /// The types most programs need.
 pub mod prelude {

@@ -66,16 +66,22 @@ pub struct Dialect {
 /// assert!(r.next().is_none());
 /// ```
 pub struct CountReader {
-    file: String,
     csv: csv::Reader<Box<dyn Read + Send>>,
-    headers: Vec<String>,
     meta_names: Vec<String>,
-    layout: Layout,
-    dialect: Dialect,
-    percent: bool,
+    parser: RowParser,
     seen: HashMap<u64, u64>,
     record: csv::ByteRecord,
     done: bool,
+}
+
+/// Everything needed to validate one row, shared read-only by parallel workers.
+#[derive(Debug, Clone)]
+pub(crate) struct RowParser {
+    file: String,
+    headers: Vec<String>,
+    layout: Layout,
+    dialect: Dialect,
+    percent: bool,
 }
 
 fn sniff_delimiter(line: &[u8]) -> u8 {
@@ -151,10 +157,18 @@ impl<R: Read> Read for CrlfToLf<R> {
                     self.start += 1;
                     continue;
                 }
+                out[w] = b;
+                w += 1;
+                self.start += 1;
+                continue;
             }
-            out[w] = b;
-            w += 1;
-            self.start += 1;
+            // Copy the run up to the next CR in one go.
+            let room = (out.len() - w).min(self.end - self.start);
+            let run = &self.buf[self.start..self.start + room];
+            let len = run.iter().position(|c| *c == b'\r').unwrap_or(room);
+            out[w..w + len].copy_from_slice(&run[..len]);
+            w += len;
+            self.start += len;
         }
         Ok(w)
     }
@@ -188,12 +202,6 @@ mod crlf_tests {
             );
         }
     }
-}
-
-fn id_key(id: &str) -> u64 {
-    let mut h = DefaultHasher::new();
-    id.hash(&mut h);
-    h.finish()
 }
 
 impl CountReader {
@@ -268,13 +276,15 @@ impl CountReader {
         let layout = resolve(file, &headers, options.mapping.as_ref(), options.percent)?;
         let meta_names = layout.meta.iter().map(|i| headers[*i].clone()).collect();
         Ok(CountReader {
-            file: file.to_string(),
             csv,
-            headers,
             meta_names,
-            layout,
-            dialect,
-            percent: options.percent,
+            parser: RowParser {
+                file: file.to_string(),
+                headers,
+                layout,
+                dialect,
+                percent: options.percent,
+            },
             seen: HashMap::new(),
             record: csv::ByteRecord::new(),
             done: false,
@@ -283,17 +293,17 @@ impl CountReader {
 
     /// The file name used in messages.
     pub fn file(&self) -> &str {
-        &self.file
+        &self.parser.file
     }
 
     /// The detected dialect.
     pub fn dialect(&self) -> Dialect {
-        self.dialect
+        self.parser.dialect
     }
 
     /// The header cells, trimmed.
     pub fn headers(&self) -> &[String] {
-        &self.headers
+        &self.parser.headers
     }
 
     /// Names of the metadata columns, in table order.
@@ -313,9 +323,65 @@ impl CountReader {
     /// assert!(r.has_category(Category::Lm));
     /// ```
     pub fn has_category(&self, category: crate::counts::Category) -> bool {
-        self.layout.present[category.index()]
+        self.parser.layout.present[category.index()]
     }
 
+    /// The row validator, for parallel use.
+    pub(crate) fn parser(&self) -> &RowParser {
+        &self.parser
+    }
+
+    /// Read the next non-blank row into `rec` without validating it; `false` at the end.
+    /// Rows of empty cells (spreadsheet trailers such as ";;;;") are skipped.
+    pub(crate) fn read_raw(&mut self, rec: &mut csv::ByteRecord) -> Result<bool> {
+        if self.done {
+            return Ok(false);
+        }
+        loop {
+            match self.csv.read_byte_record(rec) {
+                Ok(false) => {
+                    self.done = true;
+                    return Ok(false);
+                }
+                Ok(true) => {}
+                Err(e) => {
+                    self.done = true;
+                    return Err(csv_error(&self.parser.file, e));
+                }
+            }
+            if !rec.iter().all(|f| cell::trimmed(f).is_empty()) {
+                return Ok(true);
+            }
+        }
+    }
+
+    /// Refuse a row whose id was used before (the only check that needs earlier rows).
+    /// Rows whose id cell is empty or not text are left to [`CountReader::parse_record`].
+    pub(crate) fn check_unique(&mut self, rec: &csv::ByteRecord) -> Result<()> {
+        let Some(raw) = rec.get(self.parser.layout.id) else {
+            return Ok(());
+        };
+        let id = cell::trimmed(raw);
+        if id.is_empty() {
+            return Ok(());
+        }
+        let line = line_of(rec);
+        let mut h = DefaultHasher::new();
+        id.hash(&mut h);
+        let key = h.finish();
+        if let Some(first) = self.seen.insert(key, line) {
+            self.seen.insert(key, first);
+            return Err(Error::DuplicateId {
+                at: self.parser.location(line, self.parser.layout.id),
+                id: String::from_utf8_lossy(id).into_owned(),
+                first_line: first,
+            });
+        }
+        Ok(())
+    }
+}
+
+impl RowParser {
     fn location(&self, line: u64, col: usize) -> Location {
         Location::new(&self.file).line(line).column(Column {
             index: col + 1,
@@ -323,24 +389,27 @@ impl CountReader {
         })
     }
 
-    fn text(&self, line: u64, col: usize) -> Result<String> {
-        std::str::from_utf8(&self.record[col])
+    fn text(&self, rec: &csv::ByteRecord, line: u64, col: usize) -> Result<String> {
+        std::str::from_utf8(&rec[col])
             .map(str::to_string)
             .map_err(|_| Error::NotText {
                 at: self.location(line, col),
             })
     }
 
-    fn parse_row(&mut self, line: u64) -> Result<Sample> {
+    /// Validate one raw row into a sample. Needs no earlier rows, so chunks of rows can be
+    /// validated in parallel.
+    pub(crate) fn parse_record(&self, rec: &csv::ByteRecord) -> Result<Sample> {
+        let line = line_of(rec);
         let width = self.headers.len();
-        if self.record.len() != width {
+        if rec.len() != width {
             return Err(Error::RaggedRow {
                 at: Location::new(&self.file).line(line),
-                found: self.record.len(),
+                found: rec.len(),
                 expected: width,
             });
         }
-        let id = self.text(line, self.layout.id)?.trim().to_string();
+        let id = self.text(rec, line, self.layout.id)?.trim().to_string();
         if id.is_empty() {
             return Err(Error::MissingId {
                 at: self.location(line, self.layout.id),
@@ -351,7 +420,7 @@ impl CountReader {
         let mut points = None;
         let comma = self.dialect.decimal_comma;
         for (i, role) in self.layout.roles.iter().enumerate() {
-            let cell = &self.record[i];
+            let cell = &rec[i];
             let parsed = match role {
                 Role::Feeds(c) => {
                     let v = if self.percent {
@@ -388,17 +457,8 @@ impl CountReader {
             (true, None) => Counting::Unknown,
         };
         let mut metadata = Vec::with_capacity(self.layout.meta.len());
-        for j in 0..self.layout.meta.len() {
-            metadata.push(self.text(line, self.layout.meta[j])?);
-        }
-        let key = id_key(&id);
-        if let Some(first) = self.seen.insert(key, line) {
-            self.seen.insert(key, first);
-            return Err(Error::DuplicateId {
-                at: self.location(line, self.layout.id),
-                id,
-                first_line: first,
-            });
+        for &j in &self.layout.meta {
+            metadata.push(self.text(rec, line, j)?);
         }
         Ok(Sample {
             id,
@@ -409,6 +469,10 @@ impl CountReader {
             metadata,
         })
     }
+}
+
+fn line_of(rec: &csv::ByteRecord) -> u64 {
+    rec.position().map_or(0, |p| p.line())
 }
 
 fn csv_error(file: &str, e: csv::Error) -> Error {
@@ -434,31 +498,19 @@ impl Iterator for CountReader {
     type Item = Result<Sample>;
 
     fn next(&mut self) -> Option<Result<Sample>> {
-        if self.done {
-            return None;
+        let mut rec = std::mem::take(&mut self.record);
+        let r = match self.read_raw(&mut rec) {
+            Ok(false) => None,
+            Ok(true) => Some(
+                self.check_unique(&rec)
+                    .and_then(|()| self.parser.parse_record(&rec)),
+            ),
+            Err(e) => Some(Err(e)),
+        };
+        self.record = rec;
+        if matches!(r, Some(Err(_))) {
+            self.done = true;
         }
-        loop {
-            match self.csv.read_byte_record(&mut self.record) {
-                Ok(false) => {
-                    self.done = true;
-                    return None;
-                }
-                Ok(true) => {}
-                Err(e) => {
-                    self.done = true;
-                    return Some(Err(csv_error(&self.file, e)));
-                }
-            }
-            // Rows of empty cells (spreadsheet trailers such as ";;;;") are skipped.
-            if self.record.iter().all(|f| cell::trimmed(f).is_empty()) {
-                continue;
-            }
-            let line = self.record.position().map_or(0, |p| p.line());
-            let r = self.parse_row(line);
-            if r.is_err() {
-                self.done = true;
-            }
-            return Some(r);
-        }
+        r
     }
 }
