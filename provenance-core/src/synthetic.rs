@@ -33,7 +33,7 @@ impl SplitMix64 {
 
     /// A whole number in `0..bound`.
     pub fn below(&mut self, bound: u32) -> u32 {
-        ((self.next_u64() >> 32) * u64::from(bound) >> 32) as u32
+        (((self.next_u64() >> 32) * u64::from(bound)) >> 32) as u32
     }
 }
 

@@ -47,7 +47,7 @@ pub fn push_fixed(buf: &mut Vec<u8>, x: f64, decimals: u32) {
     let d = decimals.min(6) as usize;
     // Truncating x·10ᵈ + ½ rounds half away from zero for the non-negative magnitude.
     let scaled = x.abs() * POW10[d] + 0.5;
-    if !(scaled < 1.8e19) {
+    if !scaled.is_finite() || scaled >= 1.8e19 {
         buf.extend_from_slice(format!("{x}").as_bytes());
         return;
     }
