@@ -19,6 +19,10 @@ pub enum Command {
     Modes(ModesArgs),
     /// Points to count for a target precision (Van der Plas & Tobi 1965).
     Plan(PlanArgs),
+    /// Everything for a count table in one folder: report.html plus CSV/JSON tables and figures.
+    Report(ReportArgs),
+    /// The report on the bundled (invented) demo data.
+    Demo(DemoArgs),
 }
 
 /// Where the counts come from and how to read them.
@@ -67,4 +71,39 @@ pub struct PlanArgs {
     /// default: a table from 5 to 50.
     #[arg(long = "proportion", value_name = "P")]
     pub proportions: Vec<f64>,
+}
+
+/// `sandprov report`.
+#[derive(Debug, Args)]
+pub struct ReportArgs {
+    #[command(flatten)]
+    pub input: InputArgs,
+    /// The report folder (created; an earlier sandprov report there is replaced).
+    #[arg(short = 'o', long = "output", value_name = "DIR")]
+    pub output: PathBuf,
+    /// Group samples by this metadata column (formation, member, section…).
+    #[arg(long, value_name = "COLUMN")]
+    pub by: Option<String>,
+    /// Stratigraphic height column, for the up-section view.
+    #[arg(long, value_name = "COLUMN")]
+    pub height: Option<String>,
+    /// Print nothing but errors.
+    #[arg(long, short = 'q')]
+    pub quiet: bool,
+}
+
+/// `sandprov demo`.
+#[derive(Debug, Args)]
+pub struct DemoArgs {
+    /// The report folder.
+    #[arg(
+        short = 'o',
+        long = "output",
+        value_name = "DIR",
+        default_value = "sandprov-demo"
+    )]
+    pub output: PathBuf,
+    /// Print nothing but errors.
+    #[arg(long, short = 'q')]
+    pub quiet: bool,
 }

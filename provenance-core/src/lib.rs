@@ -36,6 +36,7 @@
 pub mod batch;
 pub mod composition;
 pub mod counts;
+pub mod demo;
 pub mod diagram;
 pub mod error;
 pub mod geometry;
@@ -43,6 +44,7 @@ pub mod input;
 pub mod logratio;
 pub mod modes;
 pub mod output;
+pub mod report;
 pub mod stats;
 pub mod synthetic;
 
