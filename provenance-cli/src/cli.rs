@@ -26,6 +26,10 @@ pub enum Command {
     /// folk=lithic (Folk 1980 puts chert with the rock fragments), garzanti=quartz (as in
     /// Dickinson's QFL) and pettijohn=quartz (from memory).
     Name(NameArgs),
+    /// Everything for a count table in one folder: report.html plus CSV/JSON tables and figures.
+    Report(ReportArgs),
+    /// The report on the bundled (invented) demo data.
+    Demo(DemoArgs),
 }
 
 /// Where the counts come from and how to read them.
@@ -91,4 +95,39 @@ pub struct NameArgs {
     /// (repeatable), e.g. --chert garzanti=lithic.
     #[arg(long = "chert", value_name = "SCHEME=WHERE")]
     pub chert: Vec<String>,
+}
+
+/// `sandprov report`.
+#[derive(Debug, Args)]
+pub struct ReportArgs {
+    #[command(flatten)]
+    pub input: InputArgs,
+    /// The report folder (created; an earlier sandprov report there is replaced).
+    #[arg(short = 'o', long = "output", value_name = "DIR")]
+    pub output: PathBuf,
+    /// Group samples by this metadata column (formation, member, section…).
+    #[arg(long, value_name = "COLUMN")]
+    pub by: Option<String>,
+    /// Stratigraphic height column, for the up-section view.
+    #[arg(long, value_name = "COLUMN")]
+    pub height: Option<String>,
+    /// Print nothing but errors.
+    #[arg(long, short = 'q')]
+    pub quiet: bool,
+}
+
+/// `sandprov demo`.
+#[derive(Debug, Args)]
+pub struct DemoArgs {
+    /// The report folder.
+    #[arg(
+        short = 'o',
+        long = "output",
+        value_name = "DIR",
+        default_value = "sandprov-demo"
+    )]
+    pub output: PathBuf,
+    /// Print nothing but errors.
+    #[arg(long, short = 'q')]
+    pub quiet: bool,
 }

@@ -9,9 +9,13 @@ use crate::modes::SampleModes;
 use crate::output::{Format, ModesJson, ModesTable};
 use rayon::prelude::*;
 use std::io::Write;
+use std::sync::mpsc;
 
 /// Rows per parallel chunk.
 pub const CHUNK_ROWS: usize = 8192;
+
+/// Rows per parallel task within a chunk.
+const PART_ROWS: usize = 512;
 
 /// Options of the modes table.
 ///
@@ -64,41 +68,103 @@ where
         source,
     };
     out.write_all(begin).map_err(werr)?;
+    let parser = reader.parser().clone();
     let mut total = 0usize;
     let mut wrote = false;
-    let mut chunk: Vec<Sample> = Vec::with_capacity(CHUNK_ROWS);
-    loop {
-        chunk.clear();
-        for r in reader.by_ref().take(CHUNK_ROWS) {
-            chunk.push(r?);
-        }
-        if chunk.is_empty() {
-            break;
-        }
-        let parts: Vec<Vec<u8>> = chunk
-            .par_chunks(512)
-            .map(|part| {
-                let mut buf = Vec::with_capacity(part.len() * 256);
-                for (i, s) in part.iter().enumerate() {
-                    if i > 0 {
-                        buf.extend_from_slice(sep);
-                    }
-                    each(s, &mut buf);
-                }
-                buf
-            })
-            .collect();
-        for p in &parts {
-            if wrote {
-                out.write_all(sep).map_err(werr)?;
+    let mut buffers: Vec<Vec<u8>> = Vec::new();
+    std::thread::scope(|scope| -> Result<()> {
+        // A reader thread splits rows and checks id uniqueness (the only serial work) one
+        // chunk ahead of the workers; record vectors travel back to be reused.
+        let (chunks, chunks_in) = mpsc::sync_channel::<Chunk>(2);
+        let (spare, spare_in) = mpsc::channel::<Vec<csv::ByteRecord>>();
+        scope.spawn(move || loop {
+            let mut records = spare_in.try_recv().unwrap_or_default();
+            let (filled, refusal) = fill_chunk(&mut reader, &mut records);
+            let last = filled < CHUNK_ROWS || refusal.is_some();
+            if chunks
+                .send(Chunk {
+                    records,
+                    filled,
+                    refusal,
+                })
+                .is_err()
+                || last
+            {
+                break;
             }
-            out.write_all(p).map_err(werr)?;
-            wrote = true;
+        });
+        for chunk in chunks_in {
+            // Parallel part: validate, compute and format; the first refusal in row order
+            // wins. Output buffers are kept from chunk to chunk, so their memory is touched once.
+            let parts = chunk.filled.div_ceil(PART_ROWS);
+            if buffers.len() < parts {
+                buffers.resize_with(parts, Vec::new);
+            }
+            let results: Vec<Result<()>> = chunk.records[..chunk.filled]
+                .par_chunks(PART_ROWS)
+                .zip(buffers[..parts].par_iter_mut())
+                .map(|(part, buf)| {
+                    buf.clear();
+                    for (i, rec) in part.iter().enumerate() {
+                        let sample = parser.parse_record(rec)?;
+                        if i > 0 {
+                            buf.extend_from_slice(sep);
+                        }
+                        each(&sample, buf);
+                    }
+                    Ok(())
+                })
+                .collect();
+            for (r, buf) in results.into_iter().zip(&buffers) {
+                r?;
+                if wrote {
+                    out.write_all(sep).map_err(werr)?;
+                }
+                out.write_all(buf).map_err(werr)?;
+                wrote = true;
+            }
+            total += chunk.filled;
+            if let Some(e) = chunk.refusal {
+                return Err(e);
+            }
+            // The reader may have ended; a closed return channel is no error.
+            let _ = spare.send(chunk.records);
         }
-        total += chunk.len();
-    }
+        Ok(())
+    })?;
     out.write_all(end).map_err(werr)?;
     Ok(total)
+}
+
+/// Rows split by the reader thread, not yet validated.
+struct Chunk {
+    records: Vec<csv::ByteRecord>,
+    filled: usize,
+    refusal: Option<Error>,
+}
+
+/// Read up to [`CHUNK_ROWS`] raw rows, checking id uniqueness; a refusal ends the chunk at the
+/// offending row.
+fn fill_chunk(
+    reader: &mut CountReader,
+    records: &mut Vec<csv::ByteRecord>,
+) -> (usize, Option<Error>) {
+    let mut filled = 0;
+    while filled < CHUNK_ROWS {
+        if records.len() == filled {
+            records.push(csv::ByteRecord::new());
+        }
+        match reader.read_raw(&mut records[filled]) {
+            Ok(false) => break,
+            Ok(true) => {}
+            Err(e) => return (filled, Some(e)),
+        }
+        if let Err(e) = reader.check_unique(&records[filled]) {
+            return (filled, Some(e));
+        }
+        filled += 1;
+    }
+    (filled, None)
 }
 
 /// Write the modes table of every sample in `reader` to `out`.
@@ -145,5 +211,59 @@ pub fn write_modes<W: Write + ?Sized>(
             // Serializing plain maps of numbers and strings into memory cannot fail.
             let _ = serde_json::to_writer(&mut *buf, &rec);
         }),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::input::ReadOptions;
+
+    fn run(text: String) -> Result<usize> {
+        let r = CountReader::from_reader(
+            "t.csv",
+            std::io::Cursor::new(text.into_bytes()),
+            ReadOptions::default(),
+        )?;
+        write_modes(r, &mut Vec::new(), "out", ModesOptions::default())
+    }
+
+    fn table(rows: usize) -> String {
+        let mut t = String::from("sample,Qm,Qp,P,K,Lv,Ls,Lm\n");
+        for i in 0..rows {
+            t.push_str(&format!("S{i},10,1,2,3,4,5,6\n"));
+        }
+        t
+    }
+
+    #[test]
+    fn counts_every_row_across_chunks() {
+        assert_eq!(
+            run(table(CHUNK_ROWS * 2 + 17)).unwrap(),
+            CHUNK_ROWS * 2 + 17
+        );
+        assert_eq!(run(table(CHUNK_ROWS)).unwrap(), CHUNK_ROWS);
+        assert_eq!(run(table(0)).unwrap(), 0);
+    }
+
+    #[test]
+    fn the_earliest_refusal_wins_when_a_bad_cell_precedes_a_duplicate_id() {
+        // Regression: ids are checked on the reader thread, cells on the workers; the bad cell
+        // on line 12 must be reported, not the duplicate on line 15.
+        let mut t = table(20);
+        t = t.replace("S10,10,", "S10,x,").replace("S13,", "S2,");
+        let e = run(t).unwrap_err().to_string();
+        assert!(e.starts_with("t.csv, line 12, column 2"), "{e}");
+    }
+
+    #[test]
+    fn a_duplicate_in_a_later_chunk_names_both_lines() {
+        let mut t = table(CHUNK_ROWS + 100);
+        t.push_str("S5,1,1,1,1,1,1,1\n");
+        let e = run(t).unwrap_err().to_string();
+        assert!(
+            e.contains("sample id \"S5\" was already used on line 7"),
+            "{e}"
+        );
     }
 }

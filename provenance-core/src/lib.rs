@@ -38,6 +38,7 @@
 pub mod batch;
 pub mod composition;
 pub mod counts;
+pub mod demo;
 pub mod diagram;
 pub mod error;
 pub mod geometry;
@@ -46,7 +47,9 @@ pub mod logratio;
 pub mod modes;
 pub mod naming;
 pub mod output;
+pub mod report;
 pub mod stats;
+pub mod synthetic;
 
 /// The types most programs need.
 pub mod prelude {

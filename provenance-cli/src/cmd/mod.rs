@@ -1,8 +1,10 @@
 //! One module per subcommand; each maps its arguments to core calls.
 
+mod demo;
 mod modes;
 mod name;
 mod plan;
+mod report;
 
 use crate::cli::{Cli, Command, InputArgs};
 use provenance_core::error::Result;
@@ -14,6 +16,8 @@ pub fn run(cli: Cli) -> Result<()> {
         Command::Modes(a) => modes::run(a),
         Command::Plan(a) => plan::run(a),
         Command::Name(a) => name::run(a),
+        Command::Report(a) => report::run(a),
+        Command::Demo(a) => demo::run(a),
     }
 }
 

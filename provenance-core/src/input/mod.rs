@@ -7,6 +7,7 @@
 //! spaces, underscores and hyphens. A [`Mapping`] maps a lab's own columns onto categories.
 
 mod cell;
+mod crlf;
 mod layout;
 pub mod mapping;
 mod reader;

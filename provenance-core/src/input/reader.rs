@@ -1,12 +1,13 @@
 //! The streaming count-table reader.
 
 use super::cell;
+use super::crlf::CrlfToLf;
 use super::layout::{resolve, Layout, Role};
 use super::mapping::Mapping;
 use crate::counts::{Counting, Framework, NonFramework, Sample};
 use crate::error::{Column, Error, Location, Result};
 use std::collections::HashMap;
-use std::hash::{DefaultHasher, Hash, Hasher};
+use std::hash::{BuildHasherDefault, Hasher};
 use std::io::{BufRead, BufReader, Cursor, Read};
 
 pub use super::cell::MAX_COUNT;
@@ -66,16 +67,22 @@ pub struct Dialect {
 /// assert!(r.next().is_none());
 /// ```
 pub struct CountReader {
-    file: String,
     csv: csv::Reader<Box<dyn Read + Send>>,
-    headers: Vec<String>,
     meta_names: Vec<String>,
+    parser: RowParser,
+    seen: HashMap<u64, u64, BuildHasherDefault<PassThrough>>,
+    record: csv::ByteRecord,
+    done: bool,
+}
+
+/// Everything needed to validate one row, shared read-only by parallel workers.
+#[derive(Debug, Clone)]
+pub(crate) struct RowParser {
+    file: String,
+    headers: Vec<String>,
     layout: Layout,
     dialect: Dialect,
     percent: bool,
-    seen: HashMap<u64, u64>,
-    record: csv::ByteRecord,
-    done: bool,
 }
 
 fn sniff_delimiter(line: &[u8]) -> u8 {
@@ -96,12 +103,6 @@ fn sniff_delimiter(line: &[u8]) -> u8 {
     } else {
         [b',', b';', b'\t'][best]
     }
-}
-
-fn id_key(id: &str) -> u64 {
-    let mut h = DefaultHasher::new();
-    id.hash(&mut h);
-    h.finish()
 }
 
 impl CountReader {
@@ -161,7 +162,7 @@ impl CountReader {
             decimal_comma: delimiter == b';',
             bom,
         };
-        let source: Box<dyn Read + Send> = Box::new(Cursor::new(head).chain(buf));
+        let source: Box<dyn Read + Send> = Box::new(CrlfToLf::new(Cursor::new(head).chain(buf)));
         let mut csv = csv::ReaderBuilder::new()
             .delimiter(delimiter)
             .flexible(true)
@@ -176,14 +177,16 @@ impl CountReader {
         let layout = resolve(file, &headers, options.mapping.as_ref(), options.percent)?;
         let meta_names = layout.meta.iter().map(|i| headers[*i].clone()).collect();
         Ok(CountReader {
-            file: file.to_string(),
             csv,
-            headers,
             meta_names,
-            layout,
-            dialect,
-            percent: options.percent,
-            seen: HashMap::new(),
+            parser: RowParser {
+                file: file.to_string(),
+                headers,
+                layout,
+                dialect,
+                percent: options.percent,
+            },
+            seen: HashMap::default(),
             record: csv::ByteRecord::new(),
             done: false,
         })
@@ -191,17 +194,17 @@ impl CountReader {
 
     /// The file name used in messages.
     pub fn file(&self) -> &str {
-        &self.file
+        &self.parser.file
     }
 
     /// The detected dialect.
     pub fn dialect(&self) -> Dialect {
-        self.dialect
+        self.parser.dialect
     }
 
     /// The header cells, trimmed.
     pub fn headers(&self) -> &[String] {
-        &self.headers
+        &self.parser.headers
     }
 
     /// Names of the metadata columns, in table order.
@@ -221,9 +224,63 @@ impl CountReader {
     /// assert!(r.has_category(Category::Lm));
     /// ```
     pub fn has_category(&self, category: crate::counts::Category) -> bool {
-        self.layout.present[category.index()]
+        self.parser.layout.present[category.index()]
     }
 
+    /// The row validator, for parallel use.
+    pub(crate) fn parser(&self) -> &RowParser {
+        &self.parser
+    }
+
+    /// Read the next non-blank row into `rec` without validating it; `false` at the end.
+    /// Rows of empty cells (spreadsheet trailers such as ";;;;") are skipped.
+    pub(crate) fn read_raw(&mut self, rec: &mut csv::ByteRecord) -> Result<bool> {
+        if self.done {
+            return Ok(false);
+        }
+        loop {
+            match self.csv.read_byte_record(rec) {
+                Ok(false) => {
+                    self.done = true;
+                    return Ok(false);
+                }
+                Ok(true) => {}
+                Err(e) => {
+                    self.done = true;
+                    return Err(csv_error(&self.parser.file, e));
+                }
+            }
+            if !rec.iter().all(|f| cell::trimmed(f).is_empty()) {
+                return Ok(true);
+            }
+        }
+    }
+
+    /// Refuse a row whose id was used before (the only check that needs earlier rows).
+    /// Rows whose id cell is empty or not text are left to [`CountReader::parse_record`].
+    pub(crate) fn check_unique(&mut self, rec: &csv::ByteRecord) -> Result<()> {
+        let Some(raw) = rec.get(self.parser.layout.id) else {
+            return Ok(());
+        };
+        let id = cell::trimmed(raw);
+        if id.is_empty() {
+            return Ok(());
+        }
+        let line = line_of(rec);
+        let key = fnv1a(id);
+        if let Some(first) = self.seen.insert(key, line) {
+            self.seen.insert(key, first);
+            return Err(Error::DuplicateId {
+                at: self.parser.location(line, self.parser.layout.id),
+                id: String::from_utf8_lossy(id).into_owned(),
+                first_line: first,
+            });
+        }
+        Ok(())
+    }
+}
+
+impl RowParser {
     fn location(&self, line: u64, col: usize) -> Location {
         Location::new(&self.file).line(line).column(Column {
             index: col + 1,
@@ -231,24 +288,27 @@ impl CountReader {
         })
     }
 
-    fn text(&self, line: u64, col: usize) -> Result<String> {
-        std::str::from_utf8(&self.record[col])
+    fn text(&self, rec: &csv::ByteRecord, line: u64, col: usize) -> Result<String> {
+        std::str::from_utf8(&rec[col])
             .map(str::to_string)
             .map_err(|_| Error::NotText {
                 at: self.location(line, col),
             })
     }
 
-    fn parse_row(&mut self, line: u64) -> Result<Sample> {
+    /// Validate one raw row into a sample. Needs no earlier rows, so chunks of rows can be
+    /// validated in parallel.
+    pub(crate) fn parse_record(&self, rec: &csv::ByteRecord) -> Result<Sample> {
+        let line = line_of(rec);
         let width = self.headers.len();
-        if self.record.len() != width {
+        if rec.len() != width {
             return Err(Error::RaggedRow {
                 at: Location::new(&self.file).line(line),
-                found: self.record.len(),
+                found: rec.len(),
                 expected: width,
             });
         }
-        let id = self.text(line, self.layout.id)?.trim().to_string();
+        let id = self.text(rec, line, self.layout.id)?.trim().to_string();
         if id.is_empty() {
             return Err(Error::MissingId {
                 at: self.location(line, self.layout.id),
@@ -259,7 +319,7 @@ impl CountReader {
         let mut points = None;
         let comma = self.dialect.decimal_comma;
         for (i, role) in self.layout.roles.iter().enumerate() {
-            let cell = &self.record[i];
+            let cell = &rec[i];
             let parsed = match role {
                 Role::Feeds(c) => {
                     let v = if self.percent {
@@ -296,17 +356,8 @@ impl CountReader {
             (true, None) => Counting::Unknown,
         };
         let mut metadata = Vec::with_capacity(self.layout.meta.len());
-        for j in 0..self.layout.meta.len() {
-            metadata.push(self.text(line, self.layout.meta[j])?);
-        }
-        let key = id_key(&id);
-        if let Some(first) = self.seen.insert(key, line) {
-            self.seen.insert(key, first);
-            return Err(Error::DuplicateId {
-                at: self.location(line, self.layout.id),
-                id,
-                first_line: first,
-            });
+        for &j in &self.layout.meta {
+            metadata.push(self.text(rec, line, j)?);
         }
         Ok(Sample {
             id,
@@ -317,6 +368,38 @@ impl CountReader {
             metadata,
         })
     }
+}
+
+/// FNV-1a, 64 bits (Fowler, Noll & Vo; public-domain reference parameters): the key under
+/// which an id is remembered. Two different ids share a key with probability about n²/2⁶⁵
+/// (below 10⁻⁸ for a million samples); such a pair would be reported as a duplicate.
+fn fnv1a(bytes: &[u8]) -> u64 {
+    let mut h: u64 = 0xcbf2_9ce4_8422_2325;
+    for b in bytes {
+        h ^= u64::from(*b);
+        h = h.wrapping_mul(0x0000_0100_0000_01b3);
+    }
+    h
+}
+
+/// The id keys are already hashes: the map uses them as they are.
+#[derive(Default)]
+struct PassThrough(u64);
+
+impl Hasher for PassThrough {
+    fn finish(&self) -> u64 {
+        self.0
+    }
+    fn write(&mut self, bytes: &[u8]) {
+        self.0 = fnv1a(bytes);
+    }
+    fn write_u64(&mut self, v: u64) {
+        self.0 = v;
+    }
+}
+
+fn line_of(rec: &csv::ByteRecord) -> u64 {
+    rec.position().map_or(0, |p| p.line())
 }
 
 fn csv_error(file: &str, e: csv::Error) -> Error {
@@ -342,31 +425,19 @@ impl Iterator for CountReader {
     type Item = Result<Sample>;
 
     fn next(&mut self) -> Option<Result<Sample>> {
-        if self.done {
-            return None;
+        let mut rec = std::mem::take(&mut self.record);
+        let r = match self.read_raw(&mut rec) {
+            Ok(false) => None,
+            Ok(true) => Some(
+                self.check_unique(&rec)
+                    .and_then(|()| self.parser.parse_record(&rec)),
+            ),
+            Err(e) => Some(Err(e)),
+        };
+        self.record = rec;
+        if matches!(r, Some(Err(_))) {
+            self.done = true;
         }
-        loop {
-            match self.csv.read_byte_record(&mut self.record) {
-                Ok(false) => {
-                    self.done = true;
-                    return None;
-                }
-                Ok(true) => {}
-                Err(e) => {
-                    self.done = true;
-                    return Some(Err(csv_error(&self.file, e)));
-                }
-            }
-            // Rows of empty cells (spreadsheet trailers such as ";;;;") are skipped.
-            if self.record.iter().all(|f| cell::trimmed(f).is_empty()) {
-                continue;
-            }
-            let line = self.record.position().map_or(0, |p| p.line());
-            let r = self.parse_row(line);
-            if r.is_err() {
-                self.done = true;
-            }
-            return Some(r);
-        }
+        r
     }
 }

@@ -143,7 +143,9 @@ impl ModesTable {
             }
         }
         buf.push(b',');
-        push_csv_cell(buf, &flags(modes, sample).join("; "));
+        if modes.empty_framework() || sample.counting == Counting::Unknown {
+            push_csv_cell(buf, &flags(modes, sample).join("; "));
+        }
         buf.push(b'\n');
     }
 }

@@ -33,7 +33,9 @@ fn push_u64(buf: &mut Vec<u8>, mut v: u64) {
     buf.extend_from_slice(&tmp[i..]);
 }
 
-/// Append `x` with exactly `decimals` places (rounded half away from zero).
+const POW10: [f64; 7] = [1.0, 10.0, 100.0, 1e3, 1e4, 1e5, 1e6];
+
+/// Append `x` with exactly `decimals` places (at most 6; rounded half away from zero).
 ///
 /// # Example
 /// ```
@@ -42,29 +44,108 @@ fn push_u64(buf: &mut Vec<u8>, mut v: u64) {
 /// assert_eq!(b, b"0.67");
 /// ```
 pub fn push_fixed(buf: &mut Vec<u8>, x: f64, decimals: u32) {
-    let scale = 10u64.pow(decimals);
-    let scaled = (x.abs() * scale as f64).round();
-    if !x.is_finite() || scaled >= 1e18 {
+    let d = decimals.min(6) as usize;
+    // Truncating x·10ᵈ + ½ rounds half away from zero for the non-negative magnitude.
+    let scaled = x.abs() * POW10[d] + 0.5;
+    // Fast path: percentages and ratios written with 2 or 4 decimals come from a table.
+    if x >= 0.0 && scaled < (SMALL_MAX + 1) as f64 && (d == 2 || d == 4) {
+        let t = small_table(d);
+        let v = scaled as usize;
+        // A fixed 8-byte copy (one move) then a truncate beats a variable-length copy.
+        let keep = buf.len() + t.len[v] as usize;
+        buf.extend_from_slice(&t.text[v]);
+        buf.truncate(keep);
+        return;
+    }
+    if !scaled.is_finite() || scaled >= 1.8e19 {
         buf.extend_from_slice(format!("{x}").as_bytes());
         return;
     }
-    let v = scaled as u64;
-    if x < 0.0 && v != 0 {
-        buf.push(b'-');
+    let mut v = scaled as u64;
+    let negative = x < 0.0 && v != 0;
+    // Digits are written right to left into a stack buffer, two at a time, then copied once.
+    let mut tmp = [0u8; 32];
+    let mut i = tmp.len();
+    let mut written = 0;
+    while written + 2 <= d {
+        let pair = (v % 100) as usize * 2;
+        v /= 100;
+        i -= 2;
+        tmp[i..i + 2].copy_from_slice(&DIGIT_PAIRS[pair..pair + 2]);
+        written += 2;
     }
-    push_u64(buf, v / scale);
-    if decimals > 0 {
-        buf.push(b'.');
-        let frac = v % scale;
-        let mut digits = [b'0'; 20];
-        let mut f = frac;
-        for i in (0..decimals as usize).rev() {
-            digits[i] = b'0' + (f % 10) as u8;
-            f /= 10;
-        }
-        buf.extend_from_slice(&digits[..decimals as usize]);
+    if written < d {
+        i -= 1;
+        tmp[i] = b'0' + (v % 10) as u8;
+        v /= 10;
+    }
+    if d > 0 {
+        i -= 1;
+        tmp[i] = b'.';
+    }
+    while v >= 100 {
+        let pair = (v % 100) as usize * 2;
+        v /= 100;
+        i -= 2;
+        tmp[i..i + 2].copy_from_slice(&DIGIT_PAIRS[pair..pair + 2]);
+    }
+    if v >= 10 {
+        let pair = v as usize * 2;
+        i -= 2;
+        tmp[i..i + 2].copy_from_slice(&DIGIT_PAIRS[pair..pair + 2]);
+    } else {
+        i -= 1;
+        tmp[i] = b'0' + v as u8;
+    }
+    if negative {
+        i -= 1;
+        tmp[i] = b'-';
+    }
+    buf.extend_from_slice(&tmp[i..]);
+}
+
+/// Largest scaled value served from the tables (100.00 or 1.0000).
+const SMALL_MAX: usize = 10_000;
+
+struct SmallTable {
+    text: Vec<[u8; 8]>,
+    len: Vec<u8>,
+}
+
+fn build_table(d: usize) -> SmallTable {
+    let mut text = Vec::with_capacity(SMALL_MAX + 1);
+    let mut len = Vec::with_capacity(SMALL_MAX + 1);
+    for v in 0..=SMALL_MAX {
+        let s = format!(
+            "{}.{:0w$}",
+            v / 10usize.pow(d as u32),
+            v % 10usize.pow(d as u32),
+            w = d
+        );
+        let mut e = [0u8; 8];
+        e[..s.len()].copy_from_slice(s.as_bytes());
+        text.push(e);
+        len.push(s.len() as u8);
+    }
+    SmallTable { text, len }
+}
+
+fn small_table(d: usize) -> &'static SmallTable {
+    static TWO: std::sync::OnceLock<SmallTable> = std::sync::OnceLock::new();
+    static FOUR: std::sync::OnceLock<SmallTable> = std::sync::OnceLock::new();
+    if d == 2 {
+        TWO.get_or_init(|| build_table(2))
+    } else {
+        FOUR.get_or_init(|| build_table(4))
     }
 }
+
+const DIGIT_PAIRS: &[u8; 200] = b"\
+0001020304050607080910111213141516171819\
+2021222324252627282930313233343536373839\
+4041424344454647484950515253545556575859\
+6061626364656667686970717273747576777879\
+8081828384858687888990919293949596979899";
 
 /// Append a number of points: whole numbers without decimals, estimated points with two.
 ///
@@ -93,6 +174,20 @@ mod tests {
     }
 
     #[test]
+    fn table_and_general_paths_agree() {
+        for v in (0..=10_000).step_by(7) {
+            let x = v as f64 / 100.0 + 0.001;
+            let mut general = Vec::new();
+            // Negative values take the general path; their magnitude must print the same.
+            push_fixed(&mut general, -x, 2);
+            assert_eq!(
+                fixed(x, 2),
+                String::from_utf8(general).unwrap().trim_start_matches('-')
+            );
+        }
+    }
+
+    #[test]
     fn fixed_matches_std_formatting_away_from_ties() {
         for x in [
             0.0, 0.004, 0.006, 1.0, 9.995_1, 12.345_678, 99.999, 100.0, 1234.5,
@@ -101,6 +196,15 @@ mod tests {
             assert_eq!(fixed(-x, 2).trim_start_matches('-'), format!("{x:.2}"));
         }
         assert_eq!(fixed(0.123_456, 4), "0.1235");
+        assert_eq!(fixed(100.0, 2), "100.00");
+        assert_eq!(fixed(100.004, 2), "100.00");
+        assert_eq!(fixed(100.006, 2), "100.01");
+        assert_eq!(fixed(1.0, 4), "1.0000");
+        assert_eq!(fixed(0.99996, 4), "1.0000");
+        assert_eq!(fixed(0.0, 4), "0.0000");
+        assert_eq!(fixed(0.123_456, 3), "0.123");
+        assert_eq!(fixed(7.0, 0), "7");
+        assert_eq!(fixed(1.0 / 3.0, 5), "0.33333");
         assert_eq!(fixed(-0.001, 2), "0.00");
     }
 }

@@ -1,0 +1,15 @@
+//! `sandprov demo`: the report on the bundled, invented demo data.
+
+use crate::cli::DemoArgs;
+use provenance_core::demo;
+use provenance_core::error::Result;
+use provenance_core::report::build;
+
+pub fn run(a: DemoArgs) -> Result<()> {
+    let files = build(&demo::dataset()?, &demo::report_options())?;
+    files.write_to(&a.output, &[])?;
+    if !a.quiet {
+        println!("{}", a.output.join("report.html").display());
+    }
+    Ok(())
+}

@@ -1,0 +1,19 @@
+//! `sandprov report`.
+
+use crate::cli::ReportArgs;
+use provenance_core::error::Result;
+use provenance_core::report::{build, Dataset, ReportOptions};
+
+pub fn run(a: ReportArgs) -> Result<()> {
+    let data = Dataset::read(super::open_counts(&a.input)?)?;
+    let options = ReportOptions {
+        by: a.by,
+        height: a.height,
+    };
+    let files = build(&data, &options)?;
+    files.write_to(&a.output, &super::input_paths(&a.input))?;
+    if !a.quiet {
+        println!("{}", a.output.join("report.html").display());
+    }
+    Ok(())
+}

@@ -1,0 +1,110 @@
+//! `sandprov report` and `sandprov demo`, run as a user would.
+
+use predicates::prelude::*;
+use sandprov_tests::{demo_counts, Sandbox};
+
+fn external_references(html: &str) -> Vec<String> {
+    // Anything that would make a browser fetch: src/href to a scheme, url(), @import.
+    let mut found = Vec::new();
+    for needle in [
+        "src=\"http",
+        "href=\"http",
+        "url(",
+        "@import",
+        "src='http",
+        "href='http",
+        "<link",
+        "<script",
+    ] {
+        if html.contains(needle) {
+            found.push(needle.to_string());
+        }
+    }
+    found
+}
+
+#[test]
+fn demo_report_holds_every_sample_and_makes_no_external_requests() {
+    let sb = Sandbox::new();
+    sb.sandprov()
+        .arg("demo")
+        .assert()
+        .success()
+        .stdout(predicate::str::contains("sandprov-demo/report.html"));
+    let html = std::fs::read_to_string(sb.path("sandprov-demo/report.html")).unwrap();
+    let counts = std::fs::read_to_string(demo_counts()).unwrap();
+    for line in counts.lines().skip(1) {
+        let id = line.split(',').next().unwrap();
+        assert!(
+            html.contains(&format!("<td>{id}</td>")),
+            "{id} missing from the report"
+        );
+    }
+    assert!(
+        external_references(&html).is_empty(),
+        "{:?}",
+        external_references(&html)
+    );
+    assert!(html.contains("support, and do not replace, petrographic judgement"));
+    for f in ["modes.csv", "results.json"] {
+        assert!(sb.path("sandprov-demo").join(f).exists(), "{f}");
+    }
+    let json: serde_json::Value =
+        serde_json::from_slice(&std::fs::read(sb.path("sandprov-demo/results.json")).unwrap())
+            .unwrap();
+    assert_eq!(json["modes"].as_array().unwrap().len(), 40);
+}
+
+#[test]
+fn report_escapes_user_text() {
+    let sb = Sandbox::new();
+    sb.write(
+        "c.csv",
+        "sample,Qm,Qp,P,K,Lv,Ls,Lm,formation\n\"<script>alert(1)</script>\",10,1,2,3,4,5,6,\"<img src=x onerror=alert(2)>\"\n",
+    );
+    sb.sandprov()
+        .args(["report", "c.csv", "-o", "out", "--by", "formation"])
+        .assert()
+        .success();
+    let html = std::fs::read_to_string(sb.path("out/report.html")).unwrap();
+    assert!(!html.contains("<script>alert(1)"));
+    assert!(!html.contains("<img src=x"));
+    assert!(html.contains("&lt;script&gt;alert(1)&lt;/script&gt;"));
+}
+
+#[test]
+fn report_refuses_an_unknown_column_and_a_foreign_folder() {
+    let sb = Sandbox::new();
+    sb.write("c.csv", "sample,Qm,Qp,P,K,Lv,Ls,Lm\nA,10,1,2,3,4,5,6\n");
+    sb.sandprov()
+        .args(["report", "c.csv", "-o", "out", "--by", "formation"])
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("no metadata column \"formation\""));
+    assert!(!sb.path("out").exists());
+    std::fs::create_dir(sb.path("mine")).unwrap();
+    sb.write("mine/notes.txt", "keep me");
+    sb.sandprov()
+        .args(["report", "c.csv", "-o", "mine"])
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("is not a sandprov report folder"));
+    assert_eq!(
+        std::fs::read_to_string(sb.path("mine/notes.txt")).unwrap(),
+        "keep me"
+    );
+}
+
+#[test]
+fn a_refused_table_leaves_no_report() {
+    let sb = Sandbox::new();
+    sb.write(
+        "c.csv",
+        "sample,Qm,Qp,P,K,Lv,Ls,Lm\nA,10,1,2,3,4,5,6\nA,1,1,1,1,1,1,1\n",
+    );
+    sb.sandprov()
+        .args(["report", "c.csv", "-o", "out"])
+        .assert()
+        .code(3);
+    assert_eq!(sb.files(), ["c.csv"]);
+}
