@@ -11,6 +11,12 @@ fn main() {
     let args = cli::Cli::parse();
     let code = match std::panic::catch_unwind(|| cmd::run(args)) {
         Ok(Ok(())) => exit::OK,
+        // A reader that stops early (`sandprov … | head`) is not an error.
+        Ok(Err(provenance_core::error::Error::Write { source, .. }))
+            if source.kind() == std::io::ErrorKind::BrokenPipe =>
+        {
+            exit::OK
+        }
         Ok(Err(e)) => {
             eprintln!("sandprov: error: {e}");
             exit::code_for(&e)
