@@ -11,6 +11,7 @@
 //! - [`stats`] gives counting error: σ (Van der Plas & Tobi 1965), Wilson and
 //!   Clopper-Pearson intervals, and the points needed for a target precision.
 //! - [`output`] and [`batch`] write tables as CSV or JSON, streaming and atomically.
+//! - [`geometry`] and [`fields`] hold ternary geometry and the published provenance fields.
 //!
 //! ## Example
 //! ```
@@ -38,6 +39,7 @@ pub mod composition;
 pub mod counts;
 pub mod diagram;
 pub mod error;
+pub mod fields;
 pub mod geometry;
 pub mod input;
 pub mod logratio;
