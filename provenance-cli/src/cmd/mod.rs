@@ -1,7 +1,9 @@
 //! One module per subcommand; each maps its arguments to core calls.
 
+mod fields;
 mod modes;
 mod plan;
+mod setting;
 
 use crate::cli::{Cli, Command, InputArgs};
 use provenance_core::error::Result;
@@ -12,6 +14,8 @@ pub fn run(cli: Cli) -> Result<()> {
     match cli.command {
         Command::Modes(a) => modes::run(a),
         Command::Plan(a) => plan::run(a),
+        Command::Fields(c) => fields::run(c),
+        Command::Setting(a) => setting::run(a),
     }
 }
 
