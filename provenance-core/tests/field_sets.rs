@@ -6,7 +6,7 @@
 //! Dickinson (1985, in Zuffa (ed.) Provenance of Arenites, 333-361) as summarised in the
 //! project's methods sheet: checked in public texts, except the order of the QmFLt recycled
 //! fields and the place of "mixed", which are from memory. The vertices themselves are from
-//! memory, unverified: these tests check that the transcription honours the published
+//! memory, unverified: these tests check that the shipped vertices honour the published
 //! arrangement, not that it matches the printed figures.
 
 use provenance_core::fields::check::check;

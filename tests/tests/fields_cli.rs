@@ -423,3 +423,40 @@ fn setting_refuses_an_invalid_lab_file() {
             "not a simple polygon: edge 1 and edge 3 meet at [25.000, 50.000, 25.000]",
         ));
 }
+
+#[test]
+fn embedded_sets_equal_their_files() {
+    for id in SHIPPED {
+        let by_id = sandprov()
+            .args(["fields", "show", id, "--format", "json"])
+            .assert()
+            .success();
+        let by_file = sandprov()
+            .args(["fields", "show", "--format", "json"])
+            .arg(reference(&format!("{id}.toml")))
+            .assert()
+            .success();
+        assert_eq!(
+            by_id.get_output().stdout,
+            by_file.get_output().stdout,
+            "{id}"
+        );
+    }
+}
+
+#[test]
+fn setting_reads_published_percentages() {
+    // A published table in percent of the framework, without point totals (invented values).
+    let dir = tempfile::tempdir().unwrap();
+    let table = "sample;Qm;Qp;P;K;Lv;Ls;Lm\nPUB-1;20;2;35;5;30;4;4\nPUB-2;96;2;0,5;0,5;0;0,5;0,5\n";
+    let counts = write(dir.path(), "published.csv", table);
+    let out = sandprov()
+        .arg("setting")
+        .arg(&counts)
+        .args(["--percent", "--format", "json"])
+        .assert()
+        .success();
+    let v = json(&out.get_output().stdout);
+    assert_eq!(v[0]["qfl"]["group"], "magmatic arc");
+    assert_eq!(v[1]["qfl"]["field"], "craton interior");
+}

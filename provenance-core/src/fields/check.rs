@@ -12,8 +12,8 @@ use crate::geometry::overlay::{Overlay, Region, TRIANGLE_AREA};
 use crate::geometry::{Anchor, Defect};
 use std::fmt;
 
-/// Allowed departure of a vertex's three parts from a sum of 100, percentage points (set by
-/// the field-set issue; it absorbs rounding of published or digitised values).
+/// Allowed departure of a vertex's three parts from a sum of 100, percentage points (a project
+/// requirement; it absorbs rounding of published or digitised values).
 pub const VERTEX_SUM_TOLERANCE: f64 = 0.01;
 
 /// Overlap areas at or below this (percentage points squared, of a triangle of 4330) are
@@ -100,21 +100,57 @@ pub struct CheckReport {
 
 impl CheckReport {
     /// True when the set has no problems (uncovered ground is allowed).
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::fields::{check::check, FieldSet};
+    /// let r = check(&FieldSet::resolve("dickinson1985-qmflt").unwrap());
+    /// assert!(r.is_valid() && r.problem_lines().is_empty());
+    /// assert_eq!(r.overlap_percent(), 0.0);
+    /// assert!(r.uncovered_percent() < 1e-9);
+    /// ```
     pub fn is_valid(&self) -> bool {
         self.problems.is_empty()
     }
 
     /// Each problem as one line of text.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::fields::{check::check, FieldSet};
+    /// let r = check(&FieldSet::resolve("dickinson1985-qmflt").unwrap());
+    /// assert!(r.is_valid() && r.problem_lines().is_empty());
+    /// assert_eq!(r.overlap_percent(), 0.0);
+    /// assert!(r.uncovered_percent() < 1e-9);
+    /// ```
     pub fn problem_lines(&self) -> Vec<String> {
         self.problems.iter().map(|p| p.to_string()).collect()
     }
 
     /// Overlap area as a percentage of the triangle.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::fields::{check::check, FieldSet};
+    /// let r = check(&FieldSet::resolve("dickinson1985-qmflt").unwrap());
+    /// assert!(r.is_valid() && r.problem_lines().is_empty());
+    /// assert_eq!(r.overlap_percent(), 0.0);
+    /// assert!(r.uncovered_percent() < 1e-9);
+    /// ```
     pub fn overlap_percent(&self) -> f64 {
         100.0 * self.overlap_area / TRIANGLE_AREA
     }
 
     /// Uncovered area as a percentage of the triangle.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::fields::{check::check, FieldSet};
+    /// let r = check(&FieldSet::resolve("dickinson1985-qmflt").unwrap());
+    /// assert!(r.is_valid() && r.problem_lines().is_empty());
+    /// assert_eq!(r.overlap_percent(), 0.0);
+    /// assert!(r.uncovered_percent() < 1e-9);
+    /// ```
     pub fn uncovered_percent(&self) -> f64 {
         100.0 * self.uncovered_area / TRIANGLE_AREA
     }
@@ -209,6 +245,14 @@ fn show(v: [f64; 3]) -> String {
 }
 
 /// Check a set; see the [module](self) documentation for what makes it valid.
+///
+/// # Example
+/// ```
+/// use provenance_core::fields::{check::check, FieldSet};
+/// let r = check(&FieldSet::resolve("dickinson-suczek1979-qmpk").unwrap());
+/// assert_eq!(r.uncovered.len(), 1);
+/// assert!((r.uncovered_percent() - 17.5).abs() < 1e-9);
+/// ```
 pub fn check(set: &FieldSet) -> CheckReport {
     let mut problems = Vec::new();
     let poles = set.diagram.poles();

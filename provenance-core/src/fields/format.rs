@@ -34,6 +34,10 @@ use toml::Spanned;
 /// The format version this build reads.
 pub const FORMAT_VERSION: i64 = 1;
 
+/// Most vertices a set may have in all, so that checking stays quick (our limit; a digitised
+/// field rarely needs more than a few hundred).
+pub const MAX_VERTICES: usize = 10_000;
+
 #[derive(Deserialize)]
 #[serde(deny_unknown_fields)]
 struct RawSet {
@@ -268,6 +272,15 @@ pub fn parse(file: &str, text: &str) -> Result<FieldSet> {
             "fields",
             "no fields".into(),
             "at least one [[fields]] table",
+        ));
+    }
+    let total: usize = raw_fields.iter().map(|f| f.vertices.get_ref().len()).sum();
+    if total > MAX_VERTICES {
+        return Err(cx.bad(
+            &fields_span,
+            "fields",
+            format!("the fields have {total} vertices in all"),
+            &format!("at most {MAX_VERTICES}"),
         ));
     }
     let mut fields: Vec<Field> = Vec::with_capacity(raw_fields.len());

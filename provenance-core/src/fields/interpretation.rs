@@ -69,6 +69,14 @@ pub struct Interpretation {
 
 impl Interpretation {
     /// The reading of a field: by its published name where we know it, else by its group.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::fields::{Field, Group, Interpretation};
+    /// use provenance_core::geometry::Polygon;
+    /// let f = Field::new("craton interior", Group::ContinentalBlock, Polygon::new(vec![]));
+    /// assert_eq!(Interpretation::of(&f).provenance, "stable craton");
+    /// ```
     pub fn of(field: &Field) -> Interpretation {
         let name = field.name.to_ascii_lowercase();
         by_name(name.trim()).unwrap_or_else(|| by_group(field.group))
@@ -203,7 +211,7 @@ mod tests {
         Field::new(name, group, Polygon::new(vec![]))
     }
 
-    // The provenance-to-basin table of Dickinson & Suczek (1979), as restated in the issue.
+    // The provenance-to-basin table after Dickinson & Suczek (1979) and Dickinson (1985).
     #[test]
     fn table_rows_hold() {
         let craton = Interpretation::of(&field("craton interior", Group::ContinentalBlock));

@@ -1,7 +1,7 @@
 //! Published tectonic-provenance fields as data, and looking a composition up in them.
 //!
 //! A [`FieldSet`] is a set of named [`Field`]s on one [`Diagram`], each a polygon with a
-//! provenance [`Group`]. Sets are read from TOML files in our own format ([`format`],
+//! provenance [`Group`]. Sets are read from TOML files in our own format ([`format`](mod@format),
 //! documented in `reference-fields/README.md`); the sets shipped in `reference-fields/` are
 //! compiled in ([`embedded`]) so their ids resolve without files ([`FieldSet::resolve`]).
 //! [`check`] validates a set (vertices, simple polygons, overlaps, uncovered ground) and
@@ -71,6 +71,11 @@ impl Group {
     ];
 
     /// The name as written in files and outputs.
+    ///
+    /// # Example
+    /// ```
+    /// assert_eq!(provenance_core::fields::Group::MagmaticArc.name(), "magmatic arc");
+    /// ```
     pub fn name(self) -> &'static str {
         match self {
             Group::ContinentalBlock => "continental block",
@@ -186,6 +191,14 @@ pub struct FieldPositions {
 
 impl Field {
     /// A field built in code (no file positions).
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::fields::{Field, Group};
+    /// use provenance_core::geometry::Polygon;
+    /// let f = Field::new("mixed", Group::Mixed, Polygon::new(vec![]));
+    /// assert!(f.positions.vertices.is_empty());
+    /// ```
     pub fn new(name: impl Into<String>, group: Group, polygon: Polygon) -> Field {
         Field {
             name: name.into(),
@@ -239,6 +252,13 @@ pub enum Placement {
 
 impl Placement {
     /// The field index, when inside one.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::fields::Placement;
+    /// assert_eq!(Placement::Inside { field: 2, boundary_distance: None }.field(), Some(2));
+    /// assert_eq!(Placement::Outside { nearest: None }.field(), None);
+    /// ```
     pub fn field(&self) -> Option<usize> {
         match self {
             Placement::Inside { field, .. } => Some(*field),
@@ -370,6 +390,17 @@ impl FieldSet {
     /// Where `parts` (percent) falls: the field containing it (by the rule of
     /// [`FieldSet::field_index`]) and its distance to that field's boundary with other ground,
     /// or the nearest field when it lies in unassigned ground.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::fields::{FieldSet, Placement};
+    /// let set = FieldSet::resolve("dickinson-suczek1979-qmpk").unwrap();
+    /// // In the unassigned wedge of this set: outside, with the nearest field.
+    /// match set.locate([10.0, 50.0, 40.0]) {
+    ///     Placement::Outside { nearest: Some((i, d)) } => assert!(d > 0.0 && i < 2),
+    ///     other => panic!("{other:?}"),
+    /// }
+    /// ```
     pub fn locate(&self, parts: [f64; 3]) -> Placement {
         match self.field_index(parts) {
             Some(field) => Placement::Inside {

@@ -12,6 +12,11 @@
 //! evaluated identically in both. Areas are reported in the equilateral diagram of side 100.
 //!
 //! Polygons are read with the even-odd rule; for simple polygons that is their interior.
+//!
+//! Why not a general geometry crate's boolean operations: we need only areas and the location
+//! of gaps, not the clipped polygons; the slab method gives them exactly in a page of code,
+//! cannot fail on touching or collinear edges (the common case where fields share borders),
+//! and works on the percentages as written, so shared vertices compare exactly.
 
 use super::ternary::SQRT3_2;
 use super::Polygon;
@@ -278,6 +283,13 @@ fn find(parent: &mut [usize], mut i: usize) -> usize {
 
 impl Overlay {
     /// Decompose `polygons` (vertices in percent) over the triangle.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::geometry::{overlay::Overlay, Polygon};
+    /// let top = Polygon::new(vec![[100.0, 0.0, 0.0], [50.0, 50.0, 0.0], [50.0, 0.0, 50.0]]);
+    /// assert!((Overlay::of(&[top.clone()]).area(0) - top.area()).abs() < 1e-9);
+    /// ```
     pub fn of(polygons: &[Polygon]) -> Overlay {
         let polys: Vec<Vec<Edge>> = polygons
             .iter()
@@ -367,6 +379,15 @@ impl Overlay {
 
     /// Area where polygons `i` and `j` overlap, in the equilateral diagram (percentage points
     /// squared); 0 for `i == j` or an index out of range.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::geometry::{overlay::Overlay, Polygon};
+    /// let top = Polygon::new(vec![[100.0, 0.0, 0.0], [50.0, 50.0, 0.0], [50.0, 0.0, 50.0]]);
+    /// let o = Overlay::of(&[top.clone(), top.clone()]);
+    /// assert!((o.overlap(1, 0) - top.area()).abs() < 1e-9);
+    /// assert_eq!(o.overlap(0, 0), 0.0);
+    /// ```
     pub fn overlap(&self, i: usize, j: usize) -> f64 {
         let (i, j) = (i.min(j), i.max(j));
         if i == j || j >= self.n {
@@ -388,6 +409,13 @@ impl Overlay {
     }
 
     /// The connected regions covered by no polygon, largest first.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::geometry::{overlay::Overlay, Polygon};
+    /// let whole = Polygon::new(vec![[100.0, 0.0, 0.0], [0.0, 100.0, 0.0], [0.0, 0.0, 100.0]]);
+    /// assert!(Overlay::of(&[whole]).uncovered().is_empty());
+    /// ```
     pub fn uncovered(&self) -> &[Region] {
         &self.gaps
     }

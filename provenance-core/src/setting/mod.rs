@@ -50,6 +50,15 @@ pub struct DiagramSetting {
 }
 
 /// One sample on every diagram of a [`Locator`], in the locator's order.
+///
+/// # Example
+/// ```
+/// use provenance_core::counts::{Framework, Sample};
+/// use provenance_core::setting::Locator;
+/// let l = Locator::embedded().unwrap();
+/// let s = l.locate(&Sample::counted("a", Framework { qm: 300.0, ..Default::default() }));
+/// assert_eq!(s.diagrams.len(), l.sets().len());
+/// ```
 #[derive(Debug, Clone, PartialEq)]
 pub struct SampleSetting {
     /// One entry per field set of the locator.
@@ -73,6 +82,18 @@ pub struct Locator {
 
 impl Locator {
     /// A locator over `sets`, ordered by diagram; refuses two sets for the same diagram.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::counts::{Framework, Sample};
+    /// use provenance_core::diagram::Diagram;
+    /// use provenance_core::fields::FieldSet;
+    /// use provenance_core::setting::Locator;
+    /// let l = Locator::new(vec![FieldSet::load("dickinson1985-qmflt").unwrap(), FieldSet::load("dickinson1985-qfl").unwrap()]).unwrap();
+    /// assert_eq!(l.sets()[0].diagram, Diagram::Qfl); // ordered by diagram
+    /// let s = l.locate(&Sample::counted("a", Framework { qm: 40.0, qp: 40.0, ls: 20.0, ..Default::default() }));
+    /// assert_eq!(l.field_name(0, &s.diagrams[0]), Some("recycled orogen"));
+    /// ```
     pub fn new(mut sets: Vec<FieldSet>) -> Result<Locator> {
         sets.sort_by_key(|s| s.diagram);
         for w in sets.windows(2) {
@@ -89,6 +110,12 @@ impl Locator {
     }
 
     /// Every embedded set (one per diagram that has one), checked.
+    ///
+    /// # Example
+    /// ```
+    /// let l = provenance_core::setting::Locator::embedded().unwrap();
+    /// assert_eq!(l.sets().len(), 4);
+    /// ```
     pub fn embedded() -> Result<Locator> {
         let sets = embedded::ids()
             .into_iter()
@@ -98,11 +125,29 @@ impl Locator {
     }
 
     /// The field sets, in diagram order.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::diagram::Diagram;
+    /// use provenance_core::fields::FieldSet;
+    /// use provenance_core::setting::Locator;
+    /// let l = Locator::new(vec![FieldSet::load("dickinson1985-qmflt").unwrap(), FieldSet::load("dickinson1985-qfl").unwrap()]).unwrap();
+    /// assert_eq!(l.sets()[0].diagram, Diagram::Qfl); // ordered by diagram
+    /// ```
     pub fn sets(&self) -> &[FieldSet] {
         &self.sets
     }
 
     /// Locate one sample on every diagram.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::counts::{Framework, Sample};
+    /// use provenance_core::setting::Locator;
+    /// let l = Locator::embedded().unwrap();
+    /// let s = l.locate(&Sample::counted("a", Framework { lv: 90.0, ls: 10.0, ..Default::default() }));
+    /// assert!(s.diagrams[2].placement.is_none()); // QmPK: no Qm, P or K
+    /// ```
     pub fn locate(&self, sample: &Sample) -> SampleSetting {
         SampleSetting {
             diagrams: self
@@ -118,6 +163,18 @@ impl Locator {
     }
 
     /// The name of the field entry `d` (of set `i`) falls in, if any.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::counts::{Framework, Sample};
+    /// use provenance_core::diagram::Diagram;
+    /// use provenance_core::fields::FieldSet;
+    /// use provenance_core::setting::Locator;
+    /// let l = Locator::new(vec![FieldSet::load("dickinson1985-qmflt").unwrap(), FieldSet::load("dickinson1985-qfl").unwrap()]).unwrap();
+    /// assert_eq!(l.sets()[0].diagram, Diagram::Qfl); // ordered by diagram
+    /// let s = l.locate(&Sample::counted("a", Framework { qm: 40.0, qp: 40.0, ls: 20.0, ..Default::default() }));
+    /// assert_eq!(l.field_name(0, &s.diagrams[0]), Some("recycled orogen"));
+    /// ```
     pub fn field_name<'a>(&'a self, i: usize, d: &DiagramSetting) -> Option<&'a str> {
         let f = d.placement?.field()?;
         Some(self.sets.get(i)?.fields.get(f)?.name.as_str())

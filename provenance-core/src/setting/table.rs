@@ -76,6 +76,14 @@ pub struct SettingTable<'a> {
 
 impl SettingTable<'_> {
     /// The column names of one diagram's block.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::setting::{Locator, SettingTable};
+    /// let locator = Locator::embedded().unwrap();
+    /// let t = SettingTable { metadata: vec![], locator: &locator };
+    /// assert_eq!(t.diagram_columns(&locator.sets()[1])[0], "qmflt_field");
+    /// ```
     pub fn diagram_columns(&self, set: &FieldSet) -> Vec<String> {
         let d = set.diagram.id();
         [
@@ -93,6 +101,14 @@ impl SettingTable<'_> {
     }
 
     /// Column names.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::setting::{Locator, SettingTable};
+    /// let locator = Locator::embedded().unwrap();
+    /// let t = SettingTable { metadata: vec!["height".into()], locator: &locator };
+    /// assert_eq!(t.header().len(), 2 + 4 * 7 + 1);
+    /// ```
     pub fn header(&self) -> Vec<String> {
         let mut h = vec!["sample".to_string()];
         h.extend(self.metadata.iter().cloned());
@@ -104,6 +120,15 @@ impl SettingTable<'_> {
     }
 
     /// The header as one CSV line.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::setting::{Locator, SettingTable};
+    /// let locator = Locator::embedded().unwrap();
+    /// let mut buf = Vec::new();
+    /// SettingTable { metadata: vec![], locator: &locator }.push_header(&mut buf);
+    /// assert!(buf.starts_with(b"sample,qfl_field,") && buf.ends_with(b",caution\n"));
+    /// ```
     pub fn push_header(&self, buf: &mut Vec<u8>) {
         for (i, h) in self.header().iter().enumerate() {
             if i > 0 {
@@ -115,6 +140,19 @@ impl SettingTable<'_> {
     }
 
     /// One diagram's cells, each preceded by a comma.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::counts::{Framework, Sample};
+    /// use provenance_core::fields::FieldSet;
+    /// use provenance_core::setting::{Locator, SettingTable};
+    /// let locator = Locator::new(vec![FieldSet::load("dickinson1985-qfl").unwrap()]).unwrap();
+    /// let t = SettingTable { metadata: vec![], locator: &locator };
+    /// let s = Sample::counted("B", Framework { lv: 100.0, ..Default::default() });
+    /// let mut block = Vec::new();
+    /// t.push_diagram(&mut block, &locator.sets()[0], &locator.locate(&s).diagrams[0]);
+    /// assert!(block.starts_with(b",undissected arc,magmatic arc,"));
+    /// ```
     pub fn push_diagram(&self, buf: &mut Vec<u8>, set: &FieldSet, d: &DiagramSetting) {
         let field = d
             .placement
@@ -152,6 +190,19 @@ impl SettingTable<'_> {
     }
 
     /// One sample's row, ending in a newline.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::counts::{Framework, Sample};
+    /// use provenance_core::fields::FieldSet;
+    /// use provenance_core::setting::{Locator, SettingTable};
+    /// let locator = Locator::new(vec![FieldSet::load("dickinson1985-qfl").unwrap()]).unwrap();
+    /// let t = SettingTable { metadata: vec![], locator: &locator };
+    /// let s = Sample::counted("B", Framework { lv: 100.0, ..Default::default() });
+    /// let mut row = Vec::new();
+    /// t.push_row(&mut row, &s, &locator.locate(&s));
+    /// assert!(row.starts_with(b"B,undissected arc,magmatic arc,"));
+    /// ```
     pub fn push_row(&self, buf: &mut Vec<u8>, sample: &Sample, setting: &SampleSetting) {
         push_csv_cell(buf, &sample.id);
         for v in &sample.metadata {
