@@ -12,6 +12,7 @@
 pub mod anchor;
 pub mod overlay;
 pub mod polygon;
+pub mod region;
 pub mod simple;
 pub mod ternary;
 
