@@ -13,6 +13,8 @@
 //! - [`naming`] names each sample under Folk (1980), Garzanti (2019) and Pettijohn, Potter &
 //!   Siever (1987), with the poles and the rule behind every name.
 //! - [`output`] and [`batch`] write tables as CSV or JSON, streaming and atomically.
+//! - [`geometry`] and [`fields`] hold ternary geometry and the published provenance fields;
+//!   [`setting`] looks samples up in them.
 //!
 //! ## Example
 //! ```
@@ -41,6 +43,7 @@ pub mod counts;
 pub mod demo;
 pub mod diagram;
 pub mod error;
+pub mod fields;
 pub mod geometry;
 pub mod input;
 pub mod logratio;
@@ -48,6 +51,7 @@ pub mod modes;
 pub mod naming;
 pub mod output;
 pub mod report;
+pub mod setting;
 pub mod stats;
 pub mod synthetic;
 

@@ -1,10 +1,12 @@
 //! One module per subcommand; each maps its arguments to core calls.
 
 mod demo;
+mod fields;
 mod modes;
 mod name;
 mod plan;
 mod report;
+mod setting;
 
 use crate::cli::{Cli, Command, InputArgs};
 use provenance_core::error::Result;
@@ -18,6 +20,8 @@ pub fn run(cli: Cli) -> Result<()> {
         Command::Name(a) => name::run(a),
         Command::Report(a) => report::run(a),
         Command::Demo(a) => demo::run(a),
+        Command::Fields(c) => fields::run(c),
+        Command::Setting(a) => setting::run(a),
     }
 }
 
