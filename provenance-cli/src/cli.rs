@@ -117,6 +117,10 @@ pub struct ReportArgs {
     /// Stratigraphic height column, for the up-section view.
     #[arg(long, value_name = "COLUMN")]
     pub height: Option<String>,
+    /// Field sets to use, one per diagram (repeatable): an embedded id or a field-set file.
+    /// Default: every embedded set.
+    #[arg(long = "fields", value_name = "ID|FILE")]
+    pub fields: Vec<String>,
     /// Print nothing but errors.
     #[arg(long, short = 'q')]
     pub quiet: bool,

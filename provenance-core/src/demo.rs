@@ -35,5 +35,6 @@ pub fn report_options() -> ReportOptions {
     ReportOptions {
         by: Some("formation".into()),
         height: Some("height_m".into()),
+        fields: Vec::new(),
     }
 }

@@ -60,6 +60,22 @@ impl Diagram {
         }
     }
 
+    /// The diagram's name in trade notation, for captions and headings.
+    ///
+    /// # Example
+    /// ```
+    /// assert_eq!(provenance_core::diagram::Diagram::Qmflt.label(), "QmFLt");
+    /// ```
+    pub fn label(self) -> &'static str {
+        match self {
+            Diagram::Qfl => "QFL",
+            Diagram::Qmflt => "QmFLt",
+            Diagram::Qmpk => "QmPK",
+            Diagram::Qplvlsm => "QpLvLsm",
+            Diagram::Lmlvls => "LmLvLs",
+        }
+    }
+
     /// Pole symbols in trade notation, in the order of every three-part value.
     pub fn poles(self) -> [&'static str; 3] {
         match self {

@@ -9,6 +9,7 @@ pub fn run(a: ReportArgs) -> Result<()> {
     let options = ReportOptions {
         by: a.by,
         height: a.height,
+        fields: a.fields,
     };
     let files = build(&data, &options)?;
     files.write_to(&a.output, &super::input_paths(&a.input))?;

@@ -9,9 +9,12 @@ pub use dir::{ReportFiles, MARKER};
 
 use crate::counts::Sample;
 use crate::error::{Error, Result};
+use crate::fields::FieldSet;
 use crate::input::CountReader;
 use crate::modes::SampleModes;
-use crate::output::{ModesJson, ModesTable};
+use crate::naming::{Naming, SchemeSet};
+use crate::output::{ModesJson, ModesTable, NamesJson, NamesTable};
+use crate::setting::{Locator, SampleSetting, SettingJson, SettingTable};
 
 /// A count table held in memory for reporting.
 ///
@@ -83,6 +86,8 @@ pub struct ReportOptions {
     pub by: Option<String>,
     /// Stratigraphic height column for the up-section figure.
     pub height: Option<String>,
+    /// Field sets (ids or files), at most one per diagram; empty: every embedded set.
+    pub fields: Vec<String>,
 }
 
 /// Everything computed once for the report.
@@ -90,9 +95,35 @@ pub(crate) struct Computed<'a> {
     pub data: &'a Dataset,
     pub modes: Vec<SampleModes>,
     pub groups: Option<Vec<&'a str>>,
+    pub schemes: SchemeSet,
+    pub names: Vec<Vec<Naming>>,
+    pub locator: Locator,
+    pub settings: Vec<SampleSetting>,
 }
 
-/// Build the report's files: `report.html`, `modes.csv`, `results.json`.
+impl Computed<'_> {
+    /// Index of the locator's set for a diagram.
+    pub fn set_index(&self, d: crate::diagram::Diagram) -> Option<usize> {
+        self.locator.sets().iter().position(|s| s.diagram == d)
+    }
+}
+
+/// The field sets a report uses: the named ones, or every embedded set.
+fn locator(specs: &[String]) -> Result<Locator> {
+    if specs.is_empty() {
+        Locator::embedded()
+    } else {
+        Locator::new(
+            specs
+                .iter()
+                .map(|s| FieldSet::load(s))
+                .collect::<Result<_>>()?,
+        )
+    }
+}
+
+/// Build the report's files: `report.html`, `modes.csv`, `names.csv`, `setting.csv`,
+/// `results.json`.
 ///
 /// # Example
 /// ```
@@ -109,14 +140,22 @@ pub fn build(data: &Dataset, options: &ReportOptions) -> Result<ReportFiles> {
     if let Some(h) = options.height.as_deref() {
         data.column(h)?;
     }
+    let schemes = SchemeSet::standard();
+    let locator = locator(&options.fields)?;
     let c = Computed {
         data,
         modes: data.samples.iter().map(SampleModes::of).collect(),
         groups,
+        names: data.samples.iter().map(|s| schemes.classify(s)).collect(),
+        settings: data.samples.iter().map(|s| locator.locate(s)).collect(),
+        schemes,
+        locator,
     };
     let mut files = ReportFiles::default();
     files.add("report.html", sections::page(&c, options).into_bytes());
     files.add("modes.csv", modes_csv(&c));
+    files.add("names.csv", names_csv(&c));
+    files.add("setting.csv", setting_csv(&c));
     files.add("results.json", results_json(&c)?);
     Ok(files)
 }
@@ -134,6 +173,32 @@ fn modes_csv(c: &Computed) -> Vec<u8> {
     buf
 }
 
+fn names_csv(c: &Computed) -> Vec<u8> {
+    let t = NamesTable {
+        metadata: c.data.metadata.clone(),
+        schemes: &c.schemes,
+    };
+    let mut buf = Vec::new();
+    t.push_header(&mut buf);
+    for (s, n) in c.data.samples.iter().zip(&c.names) {
+        t.push_row(&mut buf, s, n);
+    }
+    buf
+}
+
+fn setting_csv(c: &Computed) -> Vec<u8> {
+    let t = SettingTable {
+        metadata: c.data.metadata.clone(),
+        locator: &c.locator,
+    };
+    let mut buf = Vec::new();
+    t.push_header(&mut buf);
+    for (s, st) in c.data.samples.iter().zip(&c.settings) {
+        t.push_row(&mut buf, s, st);
+    }
+    buf
+}
+
 fn results_json(c: &Computed) -> Result<Vec<u8>> {
     let modes: Vec<ModesJson> = c
         .data
@@ -146,11 +211,38 @@ fn results_json(c: &Computed) -> Result<Vec<u8>> {
             metadata: &c.data.metadata,
         })
         .collect();
+    let names: Vec<NamesJson> = c
+        .data
+        .samples
+        .iter()
+        .zip(&c.names)
+        .map(|(s, n)| NamesJson {
+            sample: s,
+            namings: n,
+            schemes: &c.schemes,
+            metadata: &c.data.metadata,
+        })
+        .collect();
+    let setting: Vec<SettingJson> = c
+        .data
+        .samples
+        .iter()
+        .zip(&c.settings)
+        .map(|(s, st)| SettingJson {
+            sample: s,
+            setting: st,
+            locator: &c.locator,
+            metadata: &c.data.metadata,
+        })
+        .collect();
     let doc = serde_json::json!({
         "source": c.data.source,
         "generator": format!("sandprov {}", env!("CARGO_PKG_VERSION")),
         "samples": c.data.samples.len(),
+        "caution": sections::CAUTION,
         "modes": modes,
+        "names": names,
+        "setting": setting,
     });
     serde_json::to_vec_pretty(&doc).map_err(|e| Error::Usage {
         message: format!("results.json could not be serialised: {e}"),
