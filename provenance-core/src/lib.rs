@@ -43,6 +43,7 @@ pub mod input;
 pub mod logratio;
 pub mod modes;
 pub mod output;
+pub mod plot;
 pub mod stats;
 
 /// The types most programs need.
