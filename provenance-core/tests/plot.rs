@@ -191,7 +191,7 @@ fn a_known_composition_lands_at_its_barycentric_page_point() {
 
     // And by hand from the layout: single column, 85 mm = 240.945 pt = 2409.45 units wide.
     let l = fig.layout();
-    assert!((l.width - 2409.448_818).abs() < 1e-3);
+    assert!((l.width - 2_409.448_818).abs() < 1e-3);
     let m = l.panels[0].mapping;
     let p = m.composition_to_page(&Composition3::close([2.0, 1.0, 1.0]).unwrap());
     let b0 = m.vertex(1);

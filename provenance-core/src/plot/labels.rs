@@ -92,10 +92,11 @@ fn label_box(at: PagePoint, align: Align, w: f64, h: f64) -> Rect {
 /// Place labels of `size` beside markers of half-width `marker` at `points`, greedily in the
 /// order given: each label takes the first of eight positions around its marker (right, left,
 /// upper right, lower right, above, below, upper left, lower left), tried close to the marker
-/// and then at 2.2 and 3.6 times the distance (with a leader line), that overlaps no marker, no label placed before it and
+/// and then at 2.2 to 12.5 times the distance (see `RINGS`; with a leader line), that overlaps no marker, no label placed before it and
 /// no box in `keep_clear`, and stays inside `frame`. When none is free it takes the position
-/// with the least overlap (text over text counts four times text over a marker) and is marked
-/// crowded.
+/// with the least overlap (text over text costs 10, text over a marker 3, each ring beyond the first 1) and is marked
+/// crowded. The most crowded markers are labelled first. Placements come back in the order of
+/// `points` (`texts` must have one entry per point).
 ///
 /// # Example
 /// ```
@@ -129,8 +130,25 @@ pub fn place_sample_labels(
         .collect();
     let grid = Grid::new(&markers, size * 4.0);
     let mut placed: Vec<Rect> = Vec::with_capacity(points.len());
-    let mut out = Vec::with_capacity(points.len());
-    for (i, (p, text)) in points.iter().zip(texts).enumerate() {
+    let mut out: Vec<Option<Placement>> = vec![None; points.len()];
+    // Most crowded markers choose first, while free positions remain near them.
+    let reach = size * 3.0;
+    let mut order: Vec<(usize, usize)> = points
+        .iter()
+        .enumerate()
+        .map(|(i, p)| {
+            let area = Rect {
+                x0: p.x - reach,
+                y0: p.y - reach,
+                x1: p.x + reach,
+                y1: p.y + reach,
+            };
+            (i, grid.count_overlaps(&area, &markers, i))
+        })
+        .collect();
+    order.sort_by_key(|(i, n)| (std::cmp::Reverse(*n), *i));
+    for (i, _) in order {
+        let (p, text) = (&points[i], texts.get(i).copied().unwrap_or(""));
         let w = text_width(text, size);
         let ring = |k: f64| {
             let (g, d, hh) = (g * k, d * k, h / 2.0);
@@ -145,13 +163,13 @@ pub fn place_sample_labels(
                 (-d, d + hh, Align::End),
             ]
         };
-        let candidates = ring(1.0)
-            .into_iter()
-            .map(|c| (c, false))
-            .chain(ring(2.2).into_iter().map(|c| (c, true)))
-            .chain(ring(3.6).into_iter().map(|c| (c, true)));
+        let candidates = RINGS
+            .iter()
+            .enumerate()
+            .flat_map(|(k, r)| ring(*r).into_iter().map(move |c| (c, k)));
         let mut best: Option<(usize, Placement)> = None;
-        for ((dx, dy, align), leader) in candidates {
+        for ((dx, dy, align), k) in candidates {
+            let leader = k > 0;
             let at = PagePoint {
                 x: p.x + dx,
                 y: p.y + dy,
@@ -159,31 +177,35 @@ pub fn place_sample_labels(
             let b = label_box(at, align, w, h);
             // Leaving the panel is worst, covering text next, covering a marker least; the
             // second ring costs a little so that near positions win ties.
-            let mut hits = if frame.contains(&b) { 0 } else { 1000 };
-            hits += grid.count_overlaps(&b, &markers, i);
-            hits += 4 * placed.iter().filter(|q| q.overlaps(&b)).count();
-            hits += 4 * keep_clear.iter().filter(|q| q.overlaps(&b)).count();
+            let mut hits = if frame.contains(&b) { k } else { 1000 };
+            hits += 3 * grid.count_overlaps(&b, &markers, i);
+            hits += 10 * placed.iter().filter(|q| q.overlaps(&b)).count();
+            hits += 10 * keep_clear.iter().filter(|q| q.overlaps(&b)).count();
             let candidate = Placement {
                 at,
                 align,
                 bounds: b,
-                crowded: hits > 0,
+                crowded: hits > k,
                 leader,
             };
             if best.as_ref().is_none_or(|(n, _)| hits < *n) {
                 best = Some((hits, candidate));
             }
-            if hits == 0 {
+            if hits <= k {
                 break;
             }
         }
         if let Some((_, chosen)) = best {
             placed.push(chosen.bounds);
-            out.push(chosen);
+            out[i] = Some(chosen);
         }
     }
-    out
+    out.into_iter().flatten().collect()
 }
+
+/// Distances of the candidate rings, in multiples of the nearest ring; every ring beyond the
+/// first adds one to a position's cost and draws a leader line.
+const RINGS: [f64; 8] = [1.0, 2.2, 3.6, 5.0, 6.5, 8.0, 10.0, 12.5];
 
 /// A uniform grid over marker boxes, so overlap tests stay fast for thousands of markers.
 struct Grid {

@@ -144,54 +144,16 @@ impl Figure {
     }
 
     fn draw_frame(&self, p: &mut Painter, layout: &Layout) {
-        let step = self.options.grid.percent();
-        let tick = pt(TICK_PT);
-        let gap = pt(GAP_PT);
         let size = pt(self.options.fonts.ticks);
-        let (c30, s30) = (0.5, crate::geometry::SQRT3_2);
         for pl in &layout.panels {
             let m = &pl.mapping;
             let corners: Vec<PagePoint> = (0..3).map(|i| m.vertex(i)).collect();
             p.line(&corners, INK, pt(FRAME_PT), true);
-            let mut v = step;
-            while v < 100.0 - 1e-9 {
-                let w = 100.0 - v;
-                let labelled = (v.round() as i64) % 20 == 0;
-                let value = format!("{}", v.round() as i64);
-                // Bottom edge: values of the third pole, ticks pointing down-left.
-                let a = m.to_page([0.0, w, v]);
-                let dir = (-c30, s30);
-                self.tick(p, a, dir, tick);
-                if labelled {
-                    let at = PagePoint {
-                        x: a.x + dir.0 * (tick + gap),
-                        y: a.y + dir.1 * (tick + gap),
-                    };
-                    p.text(&value, at, size, INK, Align::Middle, Baseline::Below);
+            for t in ticks(m, self.options.grid.percent()) {
+                self.tick(p, t.at, t.dir, pt(TICK_PT));
+                if let Some(value) = &t.value {
+                    p.text(value, t.label_at, size, INK, t.align, t.baseline);
                 }
-                // Right edge: values of the first pole, ticks pointing right.
-                let b = m.to_page([v, 0.0, w]);
-                let dir = (1.0, 0.0);
-                self.tick(p, b, dir, tick);
-                if labelled {
-                    let at = PagePoint {
-                        x: b.x + tick + gap,
-                        y: b.y,
-                    };
-                    p.text(&value, at, size, INK, Align::Start, Baseline::Middle);
-                }
-                // Left edge: values of the second pole, ticks pointing up-left.
-                let c = m.to_page([w, v, 0.0]);
-                let dir = (-c30, -s30);
-                self.tick(p, c, dir, tick);
-                if labelled {
-                    let at = PagePoint {
-                        x: c.x + dir.0 * (tick + gap),
-                        y: c.y + dir.1 * (tick + gap),
-                    };
-                    p.text(&value, at, size, INK, Align::End, Baseline::Middle);
-                }
-                v += step;
             }
         }
     }
@@ -359,8 +321,33 @@ impl Figure {
             x1: pl.left + pl.width,
             y1: pl.top + pl.height,
         };
-        // Keep the pole labels clear.
+        // Keep the pole labels and tick values clear.
         let poles = panel.diagram.poles().map(trade_notation);
+        let tick_size = pt(self.options.fonts.ticks);
+        let tick_boxes: Vec<Rect> = ticks(m, self.options.grid.percent())
+            .into_iter()
+            .filter_map(|t| {
+                let v = t.value?;
+                let w = text_width(&v, tick_size);
+                let h = tick_size;
+                let x0 = match t.align {
+                    Align::Start => t.label_at.x,
+                    Align::Middle => t.label_at.x - w / 2.0,
+                    Align::End => t.label_at.x - w,
+                };
+                let y0 = match t.baseline {
+                    Baseline::Below => t.label_at.y,
+                    Baseline::Middle => t.label_at.y - h / 2.0,
+                    Baseline::Above => t.label_at.y - h,
+                };
+                Some(Rect {
+                    x0,
+                    y0,
+                    x1: x0 + w,
+                    y1: y0 + h,
+                })
+            })
+            .collect();
         let clear: Vec<Rect> = (0..3)
             .map(|i| {
                 let v = m.vertex(i);
@@ -377,6 +364,7 @@ impl Figure {
                     y1,
                 }
             })
+            .chain(tick_boxes)
             .collect();
         let placed = place_sample_labels(&points, &refs, pt(MARKER_PT), size, frame, &clear);
         for ((pl, text), marker) in placed.iter().zip(&texts).zip(&points) {
@@ -508,4 +496,49 @@ fn marker(p: &mut Painter, at: PagePoint, s: Symbol, r: f64, edge: f64) {
         .collect();
     p.fill(&outline, s.colour, 1.0);
     p.line(&outline, INK, edge, true);
+}
+
+/// One tick on the frame: where it starts, its direction, and its value's text and place.
+struct Tick {
+    at: PagePoint,
+    dir: (f64, f64),
+    value: Option<String>,
+    label_at: PagePoint,
+    align: Align,
+    baseline: Baseline,
+}
+
+/// The ticks of a triangle every `step` percent, values every 20%. Each edge carries one
+/// pole's values, increasing toward that pole, with ticks along the grid lines of that pole:
+/// the bottom edge the third pole's (ticks down-left), the right edge the first pole's (ticks
+/// right), the left edge the second pole's (ticks up-left).
+fn ticks(m: &TernaryMapping, step: f64) -> Vec<Tick> {
+    let (len, gap) = (pt(TICK_PT), pt(GAP_PT));
+    let s30 = crate::geometry::SQRT3_2;
+    let mut out = Vec::new();
+    let mut v = step;
+    while v < 100.0 - 1e-9 {
+        let w = 100.0 - v;
+        let value = ((v.round() as i64) % 20 == 0).then(|| format!("{}", v.round() as i64));
+        for (parts, dir, align, baseline) in [
+            ([0.0, w, v], (-0.5, s30), Align::Middle, Baseline::Below),
+            ([v, 0.0, w], (1.0, 0.0), Align::Start, Baseline::Middle),
+            ([w, v, 0.0], (-0.5, -s30), Align::End, Baseline::Middle),
+        ] {
+            let at = m.to_page(parts);
+            out.push(Tick {
+                at,
+                dir,
+                value: value.clone(),
+                label_at: PagePoint {
+                    x: at.x + dir.0 * (len + gap),
+                    y: at.y + dir.1 * (len + gap),
+                },
+                align,
+                baseline,
+            });
+        }
+        v += step;
+    }
+    out
 }
