@@ -33,6 +33,13 @@ pub struct HexCell {
 }
 
 /// The occupied cells of one diagram.
+///
+/// # Example
+/// ```
+/// use provenance_core::plot::density::hexbin;
+/// let bins = hexbin([[100.0, 0.0, 0.0], [0.0, 0.0, 100.0], [0.0, 0.0, 100.0]].into_iter(), 10);
+/// assert_eq!((bins.cells.len(), bins.max()), (2, 2));
+/// ```
 #[derive(Debug, Clone, PartialEq, Default)]
 pub struct HexBins {
     /// Cells with at least one sample, in a fixed order (by cell coordinates).
@@ -47,7 +54,14 @@ impl HexBins {
 }
 
 /// Bin points given as percentages `[a, b, c]` into pointy-top hexagons `across` cells wide
-/// along the base.
+/// along the base. Points that are not finite are skipped.
+///
+/// # Example
+/// ```
+/// use provenance_core::plot::density::hexbin;
+/// let bins = hexbin([[50.0, 25.0, 25.0], [50.2, 24.9, 24.9], [f64::NAN, 0.0, 0.0]].into_iter(), 24);
+/// assert_eq!(bins.cells.iter().map(|c| c.count).sum::<u32>(), 2);
+/// ```
 pub fn hexbin(points: impl Iterator<Item = [f64; 3]>, across: usize) -> HexBins {
     let width = 100.0 / across.max(1) as f64;
     let r = width / 3f64.sqrt();

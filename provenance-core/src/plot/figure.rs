@@ -270,6 +270,24 @@ impl GroupBy {
 pub const BLANK_GROUP: &str = "(blank)";
 
 /// Collects samples into a [`Figure`]; see [`Figure::builder`].
+///
+/// # Example
+/// ```
+/// use provenance_core::counts::{Framework, Sample};
+/// use provenance_core::diagram::Diagram;
+/// use provenance_core::plot::{Figure, FigureOptions, GroupBy};
+/// let by = GroupBy { file: "t.csv".into(), column: "unit".into(), index: 0, file_column: 10 };
+/// let mut b = Figure::builder(&[Diagram::Lmlvls], Some(by));
+/// let mut s = Sample::counted("A", Framework { qm: 10.0, lv: 5.0, ..Default::default() });
+/// s.metadata = vec!["lower".into()];
+/// b.push(&s)?;
+/// // Lm = Ls = 0 but Lv > 0: the sample plots at the Lv pole.
+/// assert_eq!(b.group_index("lower"), Some(0));
+/// let fig = b.finish(FigureOptions::default());
+/// assert_eq!(fig.groups.names, ["lower"]);
+/// assert_eq!(fig.panels[0].points[0].composition.part(1), 100.0);
+/// # Ok::<(), provenance_core::error::Error>(())
+/// ```
 #[derive(Debug)]
 pub struct FigureBuilder {
     panels: Vec<Panel>,

@@ -40,6 +40,12 @@ impl Rect {
 }
 
 /// Horizontal alignment of a placed label.
+///
+/// # Example
+/// ```
+/// use provenance_core::plot::labels::Align;
+/// assert_ne!(Align::Start, Align::End);
+/// ```
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Align {
     /// The text starts at the point.
@@ -51,6 +57,16 @@ pub enum Align {
 }
 
 /// A label placed beside its marker: the text's anchor (vertical centre) and alignment.
+///
+/// # Example
+/// ```
+/// use provenance_core::plot::labels::{place_sample_labels, Align, Rect};
+/// use provenance_core::plot::PagePoint;
+/// let frame = Rect { x0: 0.0, y0: 0.0, x1: 500.0, y1: 500.0 };
+/// let p = place_sample_labels(&[PagePoint { x: 100.0, y: 100.0 }], &["S"], 17.0, 55.0, frame, &[])[0];
+/// assert_eq!(p.align, Align::Start);
+/// assert!(p.at.x > 100.0 && !p.leader && !p.crowded);
+/// ```
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Placement {
     /// Anchor point.
@@ -247,7 +263,8 @@ impl Grid {
     }
 }
 
-/// A field name fitted into its polygon: its lines, font size (points) and centre.
+/// A field name fitted into its polygon: its lines, font size (points) and centre
+/// (see [`fit_name`] for an example).
 #[derive(Debug, Clone, PartialEq)]
 pub struct FittedName {
     /// One or two lines of text.

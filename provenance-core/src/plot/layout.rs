@@ -47,6 +47,12 @@ pub struct PanelLayout {
 }
 
 /// What a legend entry shows.
+///
+/// # Example
+/// ```
+/// use provenance_core::plot::layout::LegendKey;
+/// assert_ne!(LegendKey::Group(0), LegendKey::Density(0));
+/// ```
 #[derive(Debug, Clone, PartialEq)]
 pub enum LegendKey {
     /// The legend title.
@@ -82,6 +88,26 @@ pub struct FootLine {
 }
 
 /// The whole page, in internal units (0.1 pt).
+///
+/// # Example
+/// ```
+/// use provenance_core::counts::{Framework, Sample};
+/// use provenance_core::diagram::Diagram;
+/// use provenance_core::plot::layout::LegendKey;
+/// use provenance_core::plot::{Figure, FigureOptions, GroupBy};
+/// let by = GroupBy { file: "t.csv".into(), column: "unit".into(), index: 0, file_column: 10 };
+/// let mut b = Figure::builder(&[Diagram::Qfl], Some(by));
+/// let mut s = Sample::counted("A", Framework { qm: 10.0, p: 5.0, ..Default::default() });
+/// s.metadata = vec!["lower".into()];
+/// b.push(&s)?;
+/// let l = b.finish(FigureOptions::default()).layout();
+/// // A title and one entry below the triangle; no overlays, so no foot lines.
+/// assert_eq!(l.legend.len(), 2);
+/// assert_eq!((l.legend[1].key.clone(), l.legend[1].text.as_str()), (LegendKey::Group(0), "lower"));
+/// assert!(l.legend[0].y > l.panels[0].top + l.panels[0].height);
+/// assert!(l.foot.is_empty() && l.height > l.legend[0].y);
+/// # Ok::<(), provenance_core::error::Error>(())
+/// ```
 #[derive(Debug, Clone, PartialEq)]
 pub struct Layout {
     /// Page width.

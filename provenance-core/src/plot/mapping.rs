@@ -132,6 +132,16 @@ impl TernaryMapping {
     }
 
     /// The point of the side-100 plane under a page point.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::plot::{PagePoint, TernaryMapping};
+    /// let m = TernaryMapping::new(PagePoint { x: 10.0, y: 210.0 }, 200.0);
+    /// let c = m.page_to_cartesian(PagePoint { x: 110.0, y: 210.0 });
+    /// assert_eq!((c.x, c.y), (50.0, 0.0));
+    /// assert_eq!(m.cartesian_to_page(c), PagePoint { x: 110.0, y: 210.0 });
+    /// assert_eq!((m.side(), m.scale()), (200.0, 2.0));
+    /// ```
     pub fn page_to_cartesian(&self, p: PagePoint) -> Cartesian {
         let k = self.scale();
         Cartesian {

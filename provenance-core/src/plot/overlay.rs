@@ -39,6 +39,15 @@ impl LabelledPolygon {
     }
 
     /// The same polygon with its name at `anchor` (percent of the poles).
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::geometry::Polygon;
+    /// use provenance_core::plot::LabelledPolygon;
+    /// let p = LabelledPolygon::new("a", Polygon::new(vec![[100.0, 0.0, 0.0], [0.0, 100.0, 0.0], [0.0, 0.0, 100.0]]))
+    ///     .with_anchor([60.0, 20.0, 20.0]);
+    /// assert_eq!(p.label_anchor(), [60.0, 20.0, 20.0]);
+    /// ```
     pub fn with_anchor(mut self, anchor: [f64; 3]) -> LabelledPolygon {
         self.anchor = Some(anchor);
         self

@@ -17,6 +17,13 @@ use super::text::{FONT_FAMILY, SUBSCRIPT_SCALE, SUB_CLOSE, SUB_OPEN};
 use std::fmt::Write;
 
 /// The layer ids, bottom to top.
+///
+/// # Example
+/// ```
+/// use provenance_core::plot::svg::LAYERS;
+/// assert_eq!(LAYERS.first(), Some(&"grid"));
+/// assert!(LAYERS.contains(&"fields") && LAYERS.contains(&"legend"));
+/// ```
 pub const LAYERS: [&str; 7] = [
     "grid", "fields", "frame", "regions", "samples", "labels", "legend",
 ];
