@@ -510,3 +510,18 @@ fn snapshot_one_figure_per_diagram() {
         insta::assert_snapshot!(format!("figure_{}", d.id()), svg);
     }
 }
+
+#[test]
+fn a_huge_group_name_is_shortened_to_the_page_width() {
+    let mut s = invented_samples(1).remove(0);
+    s.metadata = vec!["W".repeat(100_000)];
+    let mut b = Figure::builder(&[Diagram::Qfl], Some(by_formation()));
+    b.push(&s).unwrap();
+    let fig = b.finish(FigureOptions::default());
+    let layout = fig.layout();
+    let entry = &layout.legend[1];
+    assert!(entry.text.ends_with('…') && entry.text.chars().count() < 200);
+    let right = entry.x
+        + provenance_core::plot::text::text_width(&entry.text, fig.options.fonts.legend * 10.0);
+    assert!(right <= layout.width, "legend entry runs off the page");
+}

@@ -151,7 +151,10 @@ pub fn fit_width(text: &str, max_width: f64, size: f64) -> String {
     if text_width(text, size) <= max_width {
         return text.to_string();
     }
-    let mut chars: Vec<char> = text.chars().collect();
+    // No glyph of the font is narrower than a quarter em except zero-width marks, so no more
+    // characters than this can fit; cutting first keeps hostile megabyte-long names cheap.
+    let cap = (max_width / (0.25 * size.max(f64::MIN_POSITIVE))).ceil() as usize + 1;
+    let mut chars: Vec<char> = text.chars().take(cap).collect();
     while !chars.is_empty() {
         chars.pop();
         let candidate: String = chars.iter().collect::<String>().trim_end().to_string() + "…";
