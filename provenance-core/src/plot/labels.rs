@@ -144,7 +144,8 @@ pub fn place_sample_labels(
             y1: p.y + marker,
         })
         .collect();
-    let grid = Grid::new(&markers, size * 4.0);
+    let grid = Grid::new(&markers, size * 2.0);
+    let mut placed_grid = Grid::new(&[], size * 2.0);
     let mut placed: Vec<Rect> = Vec::with_capacity(points.len());
     let mut out: Vec<Option<Placement>> = vec![None; points.len()];
     // Most crowded markers choose first, while free positions remain near them.
@@ -193,10 +194,17 @@ pub fn place_sample_labels(
             let b = label_box(at, align, w, h);
             // Leaving the panel is worst, covering text next, covering a marker least; the
             // second ring costs a little so that near positions win ties.
+            let bound = best.as_ref().map_or(usize::MAX, |(n, _)| *n);
             let mut hits = if frame.contains(&b) { k } else { 1000 };
-            hits += 3 * grid.count_overlaps(&b, &markers, i);
-            hits += 10 * placed.iter().filter(|q| q.overlaps(&b)).count();
             hits += 10 * keep_clear.iter().filter(|q| q.overlaps(&b)).count();
+            if hits < bound {
+                let left = (bound - hits).div_ceil(10);
+                hits += 10 * placed_grid.count_overlaps_upto(&b, &placed, usize::MAX, left);
+            }
+            if hits < bound {
+                let left = (bound - hits).div_ceil(3);
+                hits += 3 * grid.count_overlaps_upto(&b, &markers, i, left);
+            }
             let candidate = Placement {
                 at,
                 align,
@@ -212,6 +220,7 @@ pub fn place_sample_labels(
             }
         }
         if let Some((_, chosen)) = best {
+            placed_grid.insert(placed.len(), &chosen.bounds);
             placed.push(chosen.bounds);
             out[i] = Some(chosen);
         }
@@ -223,7 +232,8 @@ pub fn place_sample_labels(
 /// first adds one to a position's cost and draws a leader line.
 const RINGS: [f64; 8] = [1.0, 2.2, 3.6, 5.0, 6.5, 8.0, 10.0, 12.5];
 
-/// A uniform grid over marker boxes, so overlap tests stay fast for thousands of markers.
+/// A uniform grid over boxes (markers, placed labels), so overlap tests stay fast for
+/// thousands of labels.
 struct Grid {
     cell: f64,
     buckets: std::collections::HashMap<(i64, i64), Vec<usize>>,
@@ -232,14 +242,20 @@ struct Grid {
 impl Grid {
     fn new(boxes: &[Rect], cell: f64) -> Grid {
         let cell = cell.max(1.0);
-        let mut buckets: std::collections::HashMap<(i64, i64), Vec<usize>> =
-            std::collections::HashMap::new();
+        let mut grid = Grid {
+            cell,
+            buckets: std::collections::HashMap::new(),
+        };
         for (i, b) in boxes.iter().enumerate() {
-            for key in Grid::keys(b, cell) {
-                buckets.entry(key).or_default().push(i);
-            }
+            grid.insert(i, b);
         }
-        Grid { cell, buckets }
+        grid
+    }
+
+    fn insert(&mut self, i: usize, b: &Rect) {
+        for key in Grid::keys(b, self.cell) {
+            self.buckets.entry(key).or_default().push(i);
+        }
     }
 
     fn keys(b: &Rect, cell: f64) -> impl Iterator<Item = (i64, i64)> {
@@ -249,17 +265,34 @@ impl Grid {
     }
 
     fn count_overlaps(&self, b: &Rect, boxes: &[Rect], skip: usize) -> usize {
-        let mut seen: Vec<usize> = Vec::new();
-        for key in Grid::keys(b, self.cell) {
+        self.count_overlaps_upto(b, boxes, skip, usize::MAX)
+    }
+
+    /// Like `count_overlaps`, but stops counting at `limit`.
+    fn count_overlaps_upto(&self, b: &Rect, boxes: &[Rect], skip: usize, limit: usize) -> usize {
+        let cell = self.cell;
+        let (i0, j0) = ((b.x0 / cell).floor() as i64, (b.y0 / cell).floor() as i64);
+        let mut n = 0;
+        for key in Grid::keys(b, cell) {
             if let Some(list) = self.buckets.get(&key) {
                 for &k in list {
-                    if k != skip && !seen.contains(&k) && boxes[k].overlaps(b) {
-                        seen.push(k);
+                    let o = &boxes[k];
+                    // A box listed in several cells counts once: in the first cell it shares
+                    // with the query.
+                    let home = (
+                        ((o.x0 / cell).floor() as i64).max(i0),
+                        ((o.y0 / cell).floor() as i64).max(j0),
+                    );
+                    if k != skip && home == key && o.overlaps(b) {
+                        n += 1;
+                        if n >= limit {
+                            return n;
+                        }
                     }
                 }
             }
         }
-        seen.len()
+        n
     }
 }
 

@@ -10,7 +10,7 @@ use super::painter::{Baseline, Painter};
 use super::palette::{MarkerShape, Symbol, DENSITY_RAMP, FIELD_INK, GRID, INK};
 use super::size::pt;
 use super::svg::{compose, LAYERS};
-use super::text::{sanitize, text_width, trade_notation, CAP_HEIGHT};
+use super::text::{fit_width, sanitize, text_width, trade_notation, CAP_HEIGHT};
 use crate::error::Result;
 
 /// Line widths, points.
@@ -313,7 +313,12 @@ impl Figure {
             .iter()
             .map(|q| m.composition_to_page(&q.composition))
             .collect();
-        let texts: Vec<String> = panel.points.iter().map(|q| sanitize(&q.label)).collect();
+        // A label wider than half the panel could not sit beside its marker: shorten it.
+        let texts: Vec<String> = panel
+            .points
+            .iter()
+            .map(|q| fit_width(&sanitize(&q.label), pl.width / 2.0, size))
+            .collect();
         let refs: Vec<&str> = texts.iter().map(String::as_str).collect();
         let frame = Rect {
             x0: pl.left,
