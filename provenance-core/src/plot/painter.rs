@@ -23,7 +23,7 @@ pub(crate) enum Baseline {
     Above,
 }
 
-/// Scale between the size plotters is asked for and the size it writes (see CRATE-NOTES:
+/// Scale between the size plotters is asked for and the size it writes (plotters-svg 0.3.7:
 /// the SVG backend divides font sizes by 1.24).
 const PLOTTERS_FONT_SCALE: f64 = 1.24;
 
