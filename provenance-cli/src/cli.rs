@@ -36,6 +36,8 @@ pub enum Command {
     /// Tectonic setting: the provenance field each sample falls in on each diagram, and the
     /// kinds of basin such sand typically reaches.
     Setting(SettingArgs),
+    /// Ternary diagrams for publication, as SVG, PNG or PDF (chosen by the -o extension).
+    Plot(PlotArgs),
 }
 
 /// Where the counts come from and how to read them.
@@ -177,4 +179,36 @@ pub struct SettingArgs {
     /// field-set file. Default: every embedded set.
     #[arg(long = "fields", value_name = "ID|FILE")]
     pub fields: Vec<String>,
+}
+
+/// `sandprov plot`.
+#[derive(Debug, Args)]
+pub struct PlotArgs {
+    #[command(flatten)]
+    pub input: InputArgs,
+    /// Diagrams to draw, side by side: qfl, qmflt, qmpk, qplvlsm, lmlvls (comma-separated).
+    #[arg(long, value_name = "IDS", value_delimiter = ',', required = true)]
+    pub diagram: Vec<String>,
+    /// Group samples by this metadata column, with one colour and shape per group.
+    #[arg(long, value_name = "COLUMN")]
+    pub by: Option<String>,
+    /// Write each sample's id beside its marker.
+    #[arg(long)]
+    pub labels: bool,
+    /// Field sets to draw (repeatable), each on its own diagram: an embedded id or a field-set
+    /// file, or `none`. Default: the embedded set of every drawn diagram that has one.
+    #[arg(long = "fields", value_name = "ID|FILE|none")]
+    pub fields: Vec<String>,
+    /// Printed width: single (85 mm), double (175 mm) or a width such as 120mm.
+    #[arg(long, default_value = "single", value_name = "SIZE")]
+    pub size: String,
+    /// Grid spacing in percent: 10 or 20.
+    #[arg(long, default_value = "10", value_parser = ["10", "20"])]
+    pub grid: String,
+    /// Markers or density shading: auto shades above 2000 samples per diagram.
+    #[arg(long, default_value = "auto", value_parser = ["auto", "markers", "density"])]
+    pub density: String,
+    /// Output file: .svg, .png (300 dpi) or .pdf.
+    #[arg(short = 'o', long = "output", value_name = "OUT")]
+    pub output: std::path::PathBuf,
 }

@@ -84,6 +84,8 @@ pub enum ErrorKind {
     Io,
     /// The request itself was inconsistent (for example an output path equal to an input).
     Usage,
+    /// A failure inside sandprov (a bug), not caused by the input.
+    Internal,
 }
 
 /// Everything that can go wrong in sandprov's core.
@@ -229,6 +231,22 @@ pub enum Error {
         /// What is wrong, in words.
         message: String,
     },
+    /// A grouping column has more distinct values than a figure can give distinct symbols.
+    #[error("{at}: column {column:?} has more than {max} distinct values, expected at most {max} groups for distinct plot symbols (choose a coarser column)")]
+    TooManyGroups {
+        /// Where the first value over the limit is.
+        at: Location,
+        /// The grouping column.
+        column: String,
+        /// The largest number of groups.
+        max: usize,
+    },
+    /// Drawing or converting a figure failed inside sandprov (a bug).
+    #[error("cannot render the figure: {message}")]
+    Render {
+        /// What failed.
+        message: String,
+    },
 }
 
 impl Error {
@@ -246,6 +264,7 @@ impl Error {
             Error::OutputIsInput { .. } | Error::Usage { .. } | Error::UnknownFieldSet { .. } => {
                 ErrorKind::Usage
             }
+            Error::Render { .. } => ErrorKind::Internal,
             _ => ErrorKind::Input,
         }
     }

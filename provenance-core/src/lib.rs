@@ -50,6 +50,7 @@ pub mod logratio;
 pub mod modes;
 pub mod naming;
 pub mod output;
+pub mod plot;
 pub mod report;
 pub mod setting;
 pub mod stats;

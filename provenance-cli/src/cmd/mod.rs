@@ -5,6 +5,7 @@ mod fields;
 mod modes;
 mod name;
 mod plan;
+mod plot;
 mod report;
 mod setting;
 
@@ -22,6 +23,7 @@ pub fn run(cli: Cli) -> Result<()> {
         Command::Demo(a) => demo::run(a),
         Command::Fields(c) => fields::run(c),
         Command::Setting(a) => setting::run(a),
+        Command::Plot(a) => plot::run(a),
     }
 }
 

@@ -122,7 +122,7 @@ fn settings_summary(c: &Computed) -> String {
                 None => counts.push((name, 1)),
             }
         }
-        counts.sort_by(|a, b| b.1.cmp(&a.1));
+        counts.sort_by_key(|c| std::cmp::Reverse(c.1));
         let listed: Vec<String> = counts
             .iter()
             .map(|(n, k)| format!("{} ({k})", escape(n)))
