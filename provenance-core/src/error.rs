@@ -84,6 +84,8 @@ pub enum ErrorKind {
     Io,
     /// The request itself was inconsistent (for example an output path equal to an input).
     Usage,
+    /// A failure inside sandprov (a bug).
+    Internal,
 }
 
 /// Everything that can go wrong in sandprov's core.
@@ -213,6 +215,12 @@ pub enum Error {
         /// What is wrong, in words.
         message: String,
     },
+    /// Drawing a figure failed (in memory, so only a bug can cause it).
+    #[error("drawing the figure failed: {message}")]
+    Render {
+        /// The drawing library's report.
+        message: String,
+    },
 }
 
 impl Error {
@@ -228,6 +236,7 @@ impl Error {
         match self {
             Error::Read { .. } | Error::Write { .. } => ErrorKind::Io,
             Error::OutputIsInput { .. } | Error::Usage { .. } => ErrorKind::Usage,
+            Error::Render { .. } => ErrorKind::Internal,
             _ => ErrorKind::Input,
         }
     }

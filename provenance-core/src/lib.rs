@@ -11,6 +11,8 @@
 //! - [`stats`] gives counting error: σ (Van der Plas & Tobi 1965), Wilson and
 //!   Clopper-Pearson intervals, and the points needed for a target precision.
 //! - [`output`] and [`batch`] write tables as CSV or JSON, streaming and atomically.
+//! - [`petrofacies`] summarises groups of samples (means, regions, comparisons) and finds
+//!   provenance shifts up-section.
 //!
 //! ## Example
 //! ```
@@ -43,6 +45,7 @@ pub mod input;
 pub mod logratio;
 pub mod modes;
 pub mod output;
+pub mod petrofacies;
 pub mod stats;
 pub mod synthetic;
 
