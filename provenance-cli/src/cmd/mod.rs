@@ -1,7 +1,9 @@
 //! One module per subcommand; each maps its arguments to core calls.
 
+mod groups;
 mod modes;
 mod plan;
+mod section;
 
 use crate::cli::{Cli, Command, InputArgs};
 use provenance_core::error::Result;
@@ -12,6 +14,8 @@ pub fn run(cli: Cli) -> Result<()> {
     match cli.command {
         Command::Modes(a) => modes::run(a),
         Command::Plan(a) => plan::run(a),
+        Command::Groups(a) => groups::run(a),
+        Command::Section(a) => section::run(a),
     }
 }
 
