@@ -122,5 +122,64 @@ fn change_points_are_drawn_and_labelled() {
     let cp = ChangePoints::of_section(&sec, &ChangeOptions::default()).unwrap();
     assert!(cp.note.is_some(), "two samples: too few for a search");
     let svg = render(&sec, Some(&cp), &FigureOptions::default()).unwrap();
+    assert!(svg.contains("No change-point search"));
+    assert!(!svg.contains("NaN"));
+    // Eight samples of one composition with small scatter: a search, and no change.
+    let mut samples = Vec::new();
+    for i in 0..8 {
+        let d = (i % 3) as f64;
+        let fw = Framework {
+            qm: 200.0 + 5.0 * d,
+            p: 100.0 - 3.0 * d,
+            lv: 100.0 + d,
+            ..Default::default()
+        };
+        samples.push(SectionSample::new(
+            Sample::counted(format!("S{i}"), fw),
+            i as f64,
+            None,
+        ));
+    }
+    let flat = Section {
+        axis: "h".into(),
+        ordering: Ordering::Height,
+        by: None,
+        samples,
+    };
+    let cp = ChangePoints::of_section(&flat, &ChangeOptions::default()).unwrap();
+    assert!(cp.note.is_none() && cp.changes.is_empty());
+    let svg = render(&flat, Some(&cp), &FigureOptions::default()).unwrap();
     assert!(svg.contains("No change point was found"));
+    let doc = roxmltree::Document::parse(&svg).unwrap();
+    let labels = doc
+        .descendants()
+        .find(|n| n.attribute("id") == Some("labels"))
+        .unwrap();
+    assert!(!labels
+        .descendants()
+        .any(|n| n.text().is_some_and(|t| t.trim().starts_with("change"))));
+}
+
+#[test]
+fn oversized_sections_are_refused_not_drawn() {
+    use provenance_core::error::ErrorKind;
+    use provenance_core::petrofacies::section_svg::MAX_FIGURE_SAMPLES;
+    let fw = Framework {
+        qm: 10.0,
+        p: 5.0,
+        lv: 5.0,
+        ..Default::default()
+    };
+    let samples = (0..=MAX_FIGURE_SAMPLES)
+        .map(|i| SectionSample::new(Sample::counted(format!("S{i}"), fw), i as f64, None))
+        .collect();
+    let sec = Section {
+        axis: "h".into(),
+        ordering: Ordering::Height,
+        by: None,
+        samples,
+    };
+    let e = render(&sec, None, &FigureOptions::default()).unwrap_err();
+    assert_eq!(e.kind(), ErrorKind::Usage);
+    assert!(e.to_string().contains("5001 samples"));
 }

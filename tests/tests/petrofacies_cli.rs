@@ -433,3 +433,40 @@ fn section_refuses_other_figure_formats_and_bad_columns() {
     );
     assert_eq!(sb.files(), ["c.csv"]);
 }
+
+#[test]
+fn percent_tables_without_points_get_means_but_no_pooling() {
+    // Published percentages without a number of points: no summed counts, so no pooled
+    // composition and no χ² check; the means and regions need only the compositions.
+    let sb = Sandbox::new();
+    let rows = [
+        "p1,40,2,1,20,5,25,4,3,X,1",
+        "p2,45,1,1,18,6,22,4,3,X,2",
+        "p3,38,3,2,22,4,24,4,3,X,3",
+        "p4,42,2,0,21,5,23,4,3,X,4",
+    ];
+    let input = sb.write("p.csv", format!("{HEAD}\n{}\n", rows.join("\n")));
+    let out = sb
+        .sandprov()
+        .args([
+            "groups",
+            "--percent",
+            "--by",
+            "formation",
+            "--format",
+            "json",
+        ])
+        .arg(&input)
+        .output()
+        .unwrap();
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    let v = json(&out.stdout);
+    let qfl = &v["groups"][0]["qfl"];
+    assert!(qfl["pooled"].is_null() && qfl["homogeneity"].is_null() && qfl["points"].is_null());
+    assert!(qfl["confidence_region"].is_array());
+    assert_eq!(qfl["n"], 4);
+}

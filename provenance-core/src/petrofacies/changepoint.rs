@@ -106,6 +106,14 @@ impl ChangeOptions {
 pub type Split = (Vec<(usize, f64)>, f64, SymMatrix);
 
 /// A shift between two consecutive samples.
+///
+/// # Example
+/// ```
+/// use provenance_core::petrofacies::{ChangePoint, ChangePoints};
+/// let c = ChangePoint { below_sample: "KB-014".into(), below_position: 378.3,
+///     above_sample: "KB-015".into(), above_position: 398.2, gain: 375.8 };
+/// assert!((ChangePoints::midpoint(&c) - 388.25).abs() < 1e-9);
+/// ```
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct ChangePoint {
     /// The sample just below the change (the last of the older segment).
@@ -121,6 +129,15 @@ pub struct ChangePoint {
 }
 
 /// A run of samples between change points.
+///
+/// # Example
+/// ```
+/// use provenance_core::composition::Composition3;
+/// use provenance_core::petrofacies::Segment;
+/// let s = Segment { n: 14, from_position: 0.0, to_position: 378.3,
+///     means: vec![Composition3::close([11.5, 32.3, 56.2]).unwrap()] };
+/// assert_eq!(s.means[0].parts().len(), 3);
+/// ```
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Segment {
     /// Samples in the segment.

@@ -20,6 +20,17 @@ pub struct SymMatrix {
 }
 
 /// The lower Cholesky factor L of a positive definite matrix (S = L·Lᵀ), row-major.
+///
+/// # Example
+/// ```
+/// use provenance_core::petrofacies::SymMatrix;
+/// let mut s = SymMatrix::identity(2);
+/// s.scale(4.0); // S = 4·I, so L = 2·I and det S = 16
+/// let l = s.cholesky().unwrap();
+/// assert_eq!((l.get(0, 0), l.get(1, 0), l.get(1, 1)), (2.0, 0.0, 2.0));
+/// assert_eq!(l.apply(&[1.0, -1.0]), vec![2.0, -2.0]);
+/// assert!((l.ln_det() - 16f64.ln()).abs() < 1e-12);
+/// ```
 #[derive(Debug, Clone, PartialEq)]
 pub struct Cholesky {
     d: usize,

@@ -56,7 +56,12 @@ pub(crate) struct Layout {
     pub width: f64,
     pub height: f64,
     pub heading_y: Option<f64>,
-    pub panel_title_y: f64,
+    /// Page y of each panel-title line (shared by all panels).
+    pub title_line_y: Vec<f64>,
+    /// Each panel's title, wrapped to its width.
+    pub titles: Vec<Vec<String>>,
+    /// Spacing of the percent ticks, chosen so their labels fit the panel width.
+    pub x_step: f64,
     pub plot_top: f64,
     pub plot_bottom: f64,
     pub panels: Vec<Panel>,
@@ -82,6 +87,8 @@ pub(crate) struct LayoutInput<'a> {
     pub positions: &'a [f64],
     pub depth: bool,
     pub labels: &'a [String],
+    /// One title per panel, in panel order (Q-F-L, lithics, then membership when shown).
+    pub titles: &'a [String],
     pub legend_rows: usize,
     pub caption_lines: usize,
 }
@@ -94,22 +101,7 @@ impl Layout {
         let width = i.width_mm * PT_PER_MM * UNITS_PER_PT;
         let height = i.height_mm * PT_PER_MM * UNITS_PER_PT;
         let margin = pt(6.0);
-        let mut y = margin;
-        let heading_y = i.heading.then(|| {
-            let h = y + pt(HEADING_PT) * 0.6;
-            y += pt(HEADING_PT) * 1.6;
-            h
-        });
-        let panel_title_y = y + pt(TITLE_PT) * 0.6;
-        y += pt(TITLE_PT) * 2.0;
-        let plot_top = y;
-        let caption_h = i.caption_lines as f64 * pt(CAPTION_PT) * 1.35;
-        let legend_h = i.legend_rows as f64 * pt(LABEL_PT) * 1.9;
-        let caption_top = height - margin - caption_h;
-        let legend_top = caption_top - pt(4.0) - legend_h;
-        // Below the plots: tick labels and the x-axis title.
-        let plot_bottom = legend_top - pt(TICK_PT) * 1.6 - pt(TITLE_PT) * 1.8 - pt(4.0);
-        // Left: y-axis title (rotated) and tick labels.
+        // Horizontal: y-axis title (rotated) and tick labels, panels, then the label column.
         let axis_title_x = margin + pt(TITLE_PT) * 0.7;
         let longest_tick = 6.0; // "−1180.5" at most, in characters
         let plot_left =
@@ -133,7 +125,7 @@ impl Layout {
         };
         let k = kinds.len() as f64;
         let panel_w = (label_x0 - plot_left - gap * k).max(pt(30.0)) / k;
-        let panels = kinds
+        let panels: Vec<Panel> = kinds
             .iter()
             .enumerate()
             .map(|(j, kind)| {
@@ -145,6 +137,36 @@ impl Layout {
                 }
             })
             .collect();
+        // Percent ticks every 20, 25 or 50 (or only 0 and 100): the densest whose labels fit.
+        let label_room = text_width("100", TICK_PT) + pt(4.0);
+        let x_step = [20.0, 25.0, 50.0]
+            .into_iter()
+            .find(|step| (100.0 / step + 1.0) * label_room <= panel_w)
+            .unwrap_or(100.0);
+        let titles: Vec<Vec<String>> = (0..panels.len())
+            .map(|j| {
+                let t = i.titles.get(j).map_or("", String::as_str);
+                wrap(t, panel_w + gap * 0.8, TITLE_PT)
+            })
+            .collect();
+        let title_lines = titles.iter().map(Vec::len).max().unwrap_or(1).max(1);
+        // Vertical: heading, panel titles, plots, tick labels and x title, legend, caption.
+        let mut y = margin;
+        let heading_y = i.heading.then(|| {
+            let h = y + pt(HEADING_PT) * 0.6;
+            y += pt(HEADING_PT) * 1.6;
+            h
+        });
+        let title_line_y: Vec<f64> = (0..title_lines)
+            .map(|k| y + pt(TITLE_PT) * (0.6 + 1.25 * k as f64))
+            .collect();
+        y += pt(TITLE_PT) * (0.75 + 1.25 * title_lines as f64);
+        let plot_top = y;
+        let caption_h = i.caption_lines as f64 * pt(CAPTION_PT) * 1.35;
+        let legend_h = i.legend_rows as f64 * pt(LABEL_PT) * 1.9;
+        let caption_top = height - margin - caption_h;
+        let legend_top = caption_top - pt(4.0) - legend_h;
+        let plot_bottom = legend_top - pt(TICK_PT) * 1.6 - pt(TITLE_PT) * 1.8 - pt(4.0);
         let values: Vec<f64> = i
             .positions
             .iter()
@@ -158,7 +180,9 @@ impl Layout {
             width,
             height,
             heading_y,
-            panel_title_y,
+            title_line_y,
+            titles,
+            x_step,
             plot_top,
             plot_bottom,
             panels,
@@ -236,22 +260,23 @@ pub(crate) fn tick_label(v: f64) -> String {
     }
 }
 
-/// Spread label centres so neighbours are at least `gap` apart, staying within [lo, hi] when
-/// there is room; the order of the targets is kept.
-pub(crate) fn spread(targets: &[f64], gap: f64, lo: f64, hi: f64) -> Vec<f64> {
+/// Spread label centres so that labels of the given heights do not overlap (with `pad`
+/// between them), staying within [lo, hi] when there is room; the order of the targets is kept.
+pub(crate) fn spread(targets: &[f64], heights: &[f64], pad: f64, lo: f64, hi: f64) -> Vec<f64> {
     let mut order: Vec<usize> = (0..targets.len()).collect();
     order.sort_by(|a, b| targets[*a].total_cmp(&targets[*b]));
+    let h: Vec<f64> = order.iter().map(|i| heights[*i]).collect();
     let mut ys: Vec<f64> = order.iter().map(|i| targets[*i].clamp(lo, hi)).collect();
+    let gap = |k: usize| 0.5 * (h[k - 1] + h[k]) + pad;
     for k in 1..ys.len() {
-        ys[k] = ys[k].max(ys[k - 1] + gap);
+        ys[k] = ys[k].max(ys[k - 1] + gap(k));
     }
     if let Some(last) = ys.last().copied() {
         if last > hi {
-            let shift = last - hi;
             let n = ys.len();
-            ys[n - 1] -= shift;
-            for k in (0..n - 1).rev() {
-                ys[k] = ys[k].min(ys[k + 1] - gap);
+            ys[n - 1] = hi;
+            for k in (1..n).rev() {
+                ys[k - 1] = ys[k - 1].min(ys[k] - gap(k));
             }
         }
     }
@@ -262,11 +287,12 @@ pub(crate) fn spread(targets: &[f64], gap: f64, lo: f64, hi: f64) -> Vec<f64> {
     out
 }
 
-/// Greedy word wrap to `width` page units at `pt` points.
+/// Greedy word wrap to `width` page units at `pt` points. Only plain spaces break lines, so a
+/// no-break space (U+00A0) keeps a phrase together.
 pub(crate) fn wrap(text: &str, width: f64, pt_size: f64) -> Vec<String> {
     let mut lines = Vec::new();
     let mut line = String::new();
-    for word in text.split_whitespace() {
+    for word in text.split(' ').filter(|w| !w.is_empty()) {
         let candidate = if line.is_empty() {
             word.to_string()
         } else {
@@ -304,10 +330,13 @@ mod tests {
 
     #[test]
     fn spread_keeps_order_and_gap() {
-        let ys = spread(&[10.0, 11.0, 12.0, 50.0], 5.0, 0.0, 100.0);
+        let ys = spread(&[10.0, 11.0, 12.0, 50.0], &[4.0; 4], 1.0, 0.0, 100.0);
         assert_eq!(ys, vec![10.0, 15.0, 20.0, 50.0]);
-        let ys = spread(&[98.0, 99.0], 5.0, 0.0, 100.0);
+        let ys = spread(&[98.0, 99.0], &[4.0, 4.0], 1.0, 0.0, 100.0);
         assert_eq!(ys, vec![95.0, 100.0]);
+        // A two-line label (height 8) needs 4 + 2 + 1 below a one-line one.
+        let ys = spread(&[10.0, 10.0], &[4.0, 8.0], 1.0, 0.0, 100.0);
+        assert_eq!(ys, vec![10.0, 17.0]);
     }
 
     #[test]
@@ -321,6 +350,7 @@ mod tests {
             positions: &positions,
             depth,
             labels: &[],
+            titles: &[],
             legend_rows: 2,
             caption_lines: 2,
         };

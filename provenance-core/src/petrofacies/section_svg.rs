@@ -31,6 +31,12 @@ use plotters::style::{
     TextStyle, BLACK, WHITE,
 };
 
+/// Most samples a section figure draws. Measured sections hold tens to hundreds of samples;
+/// beyond a few thousand the markers merge and the SVG grows past a few tens of megabytes
+/// (100,000 samples made 297 MB), so larger tables are refused with a usage error; split the
+/// table by section. sandprov's choice.
+pub const MAX_FIGURE_SAMPLES: usize = 5_000;
+
 /// How the figure looks.
 ///
 /// # Example
@@ -225,7 +231,7 @@ struct Figure<'a> {
 
 /// A label in the right-hand column, pointing at a page y.
 struct RightLabel {
-    text: String,
+    lines: Vec<String>,
     target: f64,
     y: f64,
     change: bool,
@@ -252,6 +258,31 @@ fn shorten(text: &str, max_width: f64, pt_size: f64) -> String {
         out.pop();
     }
     format!("{out}…")
+}
+
+/// Percent ticks from 0 to 100 every `step`.
+fn x_ticks(step: f64) -> Vec<f64> {
+    let n = (100.0 / step).round() as usize;
+    (0..=n).map(|k| step * k as f64).collect()
+}
+
+/// Line spacing of right-column labels.
+fn label_line() -> f64 {
+    pt(LABEL_PT) * 1.2
+}
+
+/// A label wrapped to `width` in at most two lines; the second is shortened if still too long.
+fn label_lines(text: &str, width: f64) -> Vec<String> {
+    let mut lines = wrap(text, width, LABEL_PT);
+    if lines.len() > 2 {
+        let rest = lines[1..].join(" ");
+        lines.truncate(1);
+        lines.push(rest);
+    }
+    lines
+        .into_iter()
+        .map(|l| shorten(&l, width, LABEL_PT))
+        .collect()
 }
 
 fn band_extent(section: &Section, first: usize, last: usize, layout: &Layout) -> (f64, f64) {
@@ -337,6 +368,14 @@ impl<'a> Figure<'a> {
         let caption = wrap(&caption_text, width_units - pt(12.0), CAPTION_PT);
         let positions: Vec<f64> = section.samples.iter().map(|s| s.position).collect();
         let legend_rows = legend_rows(&legend, width_units - pt(12.0));
+        let mut titles = vec![
+            // No-break spaces keep "(% of …)" on one line when a narrow panel wraps its title.
+            "Q, F, L (%\u{a0}of\u{a0}Q+F+L)".to_string(),
+            "Lv, Ls, Lm (%\u{a0}of\u{a0}L)".to_string(),
+        ];
+        if membership {
+            titles.push(sanitize(&options.membership_title));
+        }
         let layout = Layout::new(&LayoutInput {
             width_mm: options.width_mm,
             height_mm: options.height_mm,
@@ -345,6 +384,7 @@ impl<'a> Figure<'a> {
             positions: &positions,
             depth: section.ordering == super::Ordering::Depth,
             labels: &texts,
+            titles: &titles,
             legend_rows,
             caption_lines: caption.len(),
         });
@@ -354,7 +394,7 @@ impl<'a> Figure<'a> {
             .map(|(g, first, last)| {
                 let (y0, y1) = band_extent(section, *first, *last, &layout);
                 RightLabel {
-                    text: shorten(&sanitize(g), max_label, LABEL_PT),
+                    lines: label_lines(&sanitize(g), max_label),
                     target: 0.5 * (y0 + y1),
                     y: 0.0,
                     change: false,
@@ -364,7 +404,7 @@ impl<'a> Figure<'a> {
         if let Some(c) = changes {
             for (ch, text) in c.changes.iter().zip(&change_text) {
                 labels.push(RightLabel {
-                    text: shorten(text, max_label, LABEL_PT),
+                    lines: label_lines(text, max_label),
                     target: layout.y(ChangePoints::midpoint(ch)),
                     y: 0.0,
                     change: true,
@@ -372,9 +412,14 @@ impl<'a> Figure<'a> {
             }
         }
         let targets: Vec<f64> = labels.iter().map(|l| l.target).collect();
+        let heights: Vec<f64> = labels
+            .iter()
+            .map(|l| l.lines.len() as f64 * label_line())
+            .collect();
         let ys = spread(
             &targets,
-            pt(LABEL_PT) * 1.35,
+            &heights,
+            pt(LABEL_PT) * 0.3,
             layout.plot_top,
             layout.plot_bottom,
         );
@@ -436,8 +481,11 @@ impl<'a> Figure<'a> {
                 ))
                 .map_err(render_error)?;
             }
-            for k in 1..5 {
-                let x = p.x(20.0 * k as f64);
+            for v in x_ticks(l.x_step)
+                .into_iter()
+                .filter(|v| *v > 0.0 && *v < 100.0)
+            {
+                let x = p.x(v);
                 area.draw(&PathElement::new(
                     vec![px(x, l.plot_top), px(x, l.plot_bottom)],
                     stroke(GRID, 0.3),
@@ -458,19 +506,18 @@ impl<'a> Figure<'a> {
                 stroke(BLACK, 0.6),
             ))
             .map_err(render_error)?;
-            let title = match p.kind {
-                PanelKind::Qfl => "Q, F, L (% of Q+F+L)".to_string(),
-                PanelKind::Lithics => "Lv, Ls, Lm (% of L)".to_string(),
-                PanelKind::Membership => sanitize(&self.options.membership_title),
-            };
-            area.draw_text(
-                &title,
-                &text_style(fam, TITLE_PT, HPos::Center, VPos::Center),
-                px(0.5 * (p.x0 + p.x1), l.panel_title_y),
-            )
-            .map_err(render_error)?;
-            for k in 0..=5 {
-                let v = 20.0 * k as f64;
+            // Titles are bottom-aligned over their panel: a one-line title sits on the last line.
+            let lines = &l.titles[j];
+            let skip = l.title_line_y.len().saturating_sub(lines.len());
+            for (line, y) in lines.iter().zip(&l.title_line_y[skip..]) {
+                area.draw_text(
+                    line,
+                    &text_style(fam, TITLE_PT, HPos::Center, VPos::Center),
+                    px(0.5 * (p.x0 + p.x1), *y),
+                )
+                .map_err(render_error)?;
+            }
+            for v in x_ticks(l.x_step) {
                 let x = p.x(v);
                 area.draw(&PathElement::new(
                     vec![px(x, l.plot_bottom), px(x, l.plot_bottom + tick)],
@@ -685,8 +732,12 @@ impl<'a> Figure<'a> {
             } else {
                 text_style(self.family(), LABEL_PT, HPos::Left, VPos::Center)
             };
-            area.draw_text(&lab.text, &style, px(text_x, lab.y))
-                .map_err(render_error)?;
+            let n = lab.lines.len() as f64;
+            for (k, line) in lab.lines.iter().enumerate() {
+                let y = lab.y + (k as f64 - 0.5 * (n - 1.0)) * label_line();
+                area.draw_text(line, &style, px(text_x, y))
+                    .map_err(render_error)?;
+            }
         }
         Ok(())
     }
@@ -798,17 +849,27 @@ fn caption(section: &Section, changes: Option<&ChangePoints>) -> String {
         "{} samples, up-section upward. Error bars: ±1σ counting error, √(p(100 − p)/n) (Van der Plas & Tobi 1965); none where the number of points is unknown.",
         section.samples.len()
     );
-    if let Some(c) = changes {
-        let ids: Vec<&str> = c.options.diagrams.iter().map(|d| d.id()).collect();
-        text.push_str(&format!(
-            " Dashed lines: change points of the {} ilr sequence (binary segmentation, penalty {}·(d + 1)·ln n = {:.1}), drawn midway between the two samples named in the label.",
-            ids.join("+"),
-            tick_label(c.options.penalty_factor),
-            c.penalty
-        ));
-        if c.changes.is_empty() {
-            text.push_str(" No change point was found.");
+    match changes {
+        Some(ChangePoints {
+            note: Some(note), ..
+        }) => {
+            text.push_str(&format!(" No change-point search: {note}."));
         }
+        Some(c) => {
+            let ids: Vec<&str> = c.options.diagrams.iter().map(|d| d.id()).collect();
+            text.push_str(&format!(
+                " Dashed lines: change points of the {} ilr sequence (binary segmentation, penalty {}·(d + 1)·ln n = {:.1} for d = {} coordinates and n = {} samples), drawn midway between the two samples whose positions the label gives.",
+                ids.join("+"),
+                tick_label(c.options.penalty_factor),
+                c.penalty,
+                c.dimension,
+                c.n
+            ));
+            if c.changes.is_empty() {
+                text.push_str(" No change point was found.");
+            }
+        }
+        None => {}
     }
     text.push_str(" Statistics support, and never replace, petrographic judgement.");
     text
@@ -838,6 +899,14 @@ pub fn render(
     changes: Option<&ChangePoints>,
     options: &FigureOptions,
 ) -> Result<String> {
+    if section.samples.len() > MAX_FIGURE_SAMPLES {
+        return Err(crate::error::Error::Usage {
+            message: format!(
+                "{} samples: a section figure draws at most {MAX_FIGURE_SAMPLES}, expected one section (split the table by section)",
+                section.samples.len()
+            ),
+        });
+    }
     let fig = Figure::new(section, changes, options);
     let size = (
         fig.layout.width.round() as u32,
