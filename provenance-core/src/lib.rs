@@ -15,6 +15,8 @@
 //! - [`output`] and [`batch`] write tables as CSV or JSON, streaming and atomically.
 //! - [`geometry`] and [`fields`] hold ternary geometry and the published provenance fields;
 //!   [`setting`] looks samples up in them.
+//! - [`petrofacies`] summarises groups of samples (means, regions, comparisons) and finds
+//!   provenance shifts up-section.
 //!
 //! ## Example
 //! ```
@@ -50,6 +52,7 @@ pub mod logratio;
 pub mod modes;
 pub mod naming;
 pub mod output;
+pub mod petrofacies;
 pub mod plot;
 pub mod report;
 pub mod setting;

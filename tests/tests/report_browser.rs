@@ -46,7 +46,7 @@ fn screenshot(browser: &Path, page: &Path, out: &Path, profile: &Path) -> Screen
         std::fs::File::open(out).expect("a screenshot was written"),
     ));
     let mut reader = decoder.read_info().expect("a PNG screenshot");
-    let mut buf = vec![0; reader.output_buffer_size().expect("a sized PNG")];
+    let mut buf = vec![0; reader.output_buffer_size()];
     let info = reader.next_frame(&mut buf).expect("one frame");
     let channels = info.color_type.samples();
     let rgb = buf[..info.buffer_size()]

@@ -2,11 +2,13 @@
 
 mod demo;
 mod fields;
+mod groups;
 mod modes;
 mod name;
 mod plan;
 mod plot;
 mod report;
+mod section;
 mod setting;
 
 use crate::cli::{Cli, Command, InputArgs};
@@ -24,6 +26,8 @@ pub fn run(cli: Cli) -> Result<()> {
         Command::Fields(c) => fields::run(c),
         Command::Setting(a) => setting::run(a),
         Command::Plot(a) => plot::run(a),
+        Command::Groups(a) => groups::run(a),
+        Command::Section(a) => section::run(a),
     }
 }
 

@@ -1,6 +1,8 @@
 //! Writing results: number formatting, CSV and JSON tables, atomic files.
 
 pub mod atomic;
+pub mod changes_table;
+pub mod groups_table;
 pub mod modes_table;
 pub mod names_table;
 pub mod number;
