@@ -203,6 +203,10 @@ pub struct PlotArgs {
     /// file, or `none`. Default: the embedded set of every drawn diagram that has one.
     #[arg(long = "fields", value_name = "ID|FILE|none")]
     pub fields: Vec<String>,
+    /// Draw each group's closed geometric mean with its 95% confidence and prediction regions
+    /// (Weltje 2002); needs --by.
+    #[arg(long, requires = "by")]
+    pub means: bool,
     /// Printed width: single (85 mm), double (175 mm) or a width such as 120mm.
     #[arg(long, default_value = "single", value_name = "SIZE")]
     pub size: String,

@@ -4,10 +4,11 @@ use crate::cli::PlotArgs;
 use provenance_core::diagram::Diagram;
 use provenance_core::error::{Error, Result};
 use provenance_core::output::{check_not_input, AtomicFile};
+use provenance_core::petrofacies::{GroupOptions, Petrofacies, Table};
 use provenance_core::plot::export::{render, ImageFormat};
 use provenance_core::plot::{
-    choose_field_sets, DensityMode, Figure, FigureOptions, FigureSize, GridStep, GroupBy,
-    PolygonLayer,
+    choose_field_sets, group_overlays, DensityMode, Figure, FigureOptions, FigureSize, GridStep,
+    GroupBy, PolygonLayer,
 };
 use std::io::Write;
 
@@ -51,8 +52,32 @@ pub fn run(a: PlotArgs) -> Result<()> {
             .transpose()?;
     let field_sets = choose_field_sets(&diagrams, &a.fields)?;
     let mut builder = Figure::builder(&diagrams, group_by);
-    for sample in reader {
-        builder.push(&sample?)?;
+    let table = if a.means {
+        Some(Table::read(reader)?)
+    } else {
+        for sample in reader {
+            builder.push(&sample?)?;
+        }
+        None
+    };
+    if let (Some(table), Some(by)) = (&table, a.by.as_deref()) {
+        for sample in &table.samples {
+            builder.push(sample)?;
+        }
+        let column = table.column(by)?;
+        let result = Petrofacies::of(table, &column, GroupOptions::default())?;
+        let level = result.options.level;
+        for i in 0..diagrams.len() {
+            let (means, regions) = group_overlays(
+                diagrams[i],
+                &result.groups,
+                |name| builder.group_index(name),
+                level,
+            );
+            let panel = &mut builder.panels_mut()[i];
+            panel.means = means;
+            panel.regions = Some(regions);
+        }
     }
     for (panel, set) in builder.panels_mut().iter_mut().zip(&field_sets) {
         panel.fields = set.as_ref().map(PolygonLayer::from_field_set);

@@ -7,6 +7,7 @@ use provenance_core::output::changes_table::{changes_csv, changes_json};
 use provenance_core::output::{check_not_input, Sink};
 use provenance_core::petrofacies::section_svg::{render, FigureOptions};
 use provenance_core::petrofacies::{ChangeOptions, ChangePoints, Ordering, Section, Table};
+use provenance_core::plot::export::{encode, ImageFormat};
 use std::io::Write;
 use std::path::Path;
 
@@ -20,20 +21,18 @@ fn usage(message: String) -> Error {
     Error::Usage { message }
 }
 
-/// The figure format from `-o`: only SVG for now.
-fn check_figure_path(p: &Path) -> Result<()> {
-    match extension(p).as_str() {
-        "svg" => Ok(()),
-        "png" | "pdf" => Err(usage(format!(
-            "-o {}: section figures are written as SVG only for now (PNG and PDF will follow), expected a path ending in .svg",
+/// The figure format from `-o`.
+fn figure_format(p: &Path) -> Result<ImageFormat> {
+    ImageFormat::from_path(p).ok_or_else(|| {
+        usage(format!(
+            "-o {}: expected a path ending in .svg, .png or .pdf",
             p.display()
-        ))),
-        _ => Err(usage(format!("-o {}: expected a path ending in .svg", p.display()))),
-    }
+        ))
+    })
 }
 
 pub fn run(a: SectionArgs) -> Result<()> {
-    check_figure_path(&a.output)?;
+    let format = figure_format(&a.output)?;
     let changes_csv_format = match &a.changes {
         None => None,
         Some(p) => match extension(p).as_str() {
@@ -94,7 +93,7 @@ pub fn run(a: SectionArgs) -> Result<()> {
     };
     let svg = render(&section, Some(&changes), &figure)?;
     // Both outputs are complete in memory before either file is committed.
-    let mut outputs = vec![(Sink::open(Some(&a.output), &inputs)?, svg.into_bytes())];
+    let mut outputs = vec![(Sink::open(Some(&a.output), &inputs)?, encode(svg, format)?)];
     if let (Some(p), Some(csv)) = (&a.changes, changes_csv_format) {
         let bytes = if csv {
             changes_csv(&changes)

@@ -90,6 +90,16 @@ impl AtomicFile {
             source,
         };
         let tmp = self.tmp.into_inner().map_err(|e| err(e.into_error()))?;
+        // Temporary files are created private (0600); a finished output gets the usual
+        // permissions of a new file (0644 before the umask), as any other program's would.
+        #[cfg(unix)]
+        {
+            use std::os::unix::fs::PermissionsExt;
+            let mode = 0o666 & !current_umask();
+            tmp.as_file()
+                .set_permissions(std::fs::Permissions::from_mode(mode))
+                .map_err(err)?;
+        }
         tmp.as_file().sync_all().map_err(err)?;
         tmp.persist(&self.path).map_err(|e| err(e.error))?;
         Ok(())
@@ -103,6 +113,20 @@ impl Write for AtomicFile {
     fn flush(&mut self) -> std::io::Result<()> {
         self.tmp.flush()
     }
+}
+
+/// The process umask, read without changing it for longer than the call (Linux reports it in
+/// /proc; elsewhere 022, the common default).
+#[cfg(unix)]
+fn current_umask() -> u32 {
+    std::fs::read_to_string("/proc/self/status")
+        .ok()
+        .and_then(|s| {
+            s.lines()
+                .find_map(|l| l.strip_prefix("Umask:"))
+                .and_then(|v| u32::from_str_radix(v.trim(), 8).ok())
+        })
+        .unwrap_or(0o022)
 }
 
 /// Where a table goes: standard output, or an atomic file.

@@ -165,7 +165,19 @@ pub fn svg_to_pdf(svg: &str) -> Result<Vec<u8>> {
 /// # Ok::<(), provenance_core::error::Error>(())
 /// ```
 pub fn render(figure: &Figure, format: ImageFormat) -> Result<Vec<u8>> {
-    let svg = figure.to_svg()?;
+    encode(figure.to_svg()?, format)
+}
+
+/// Any figure's SVG as the bytes of `format` (PNG and PDF with the embedded font).
+///
+/// # Example
+/// ```
+/// use provenance_core::plot::export::{encode, ImageFormat};
+/// let svg = "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"10mm\" height=\"10mm\" viewBox=\"0 0 10 10\"/>";
+/// assert!(encode(svg.to_string(), ImageFormat::Png)?.starts_with(b"\x89PNG"));
+/// # Ok::<(), provenance_core::error::Error>(())
+/// ```
+pub fn encode(svg: String, format: ImageFormat) -> Result<Vec<u8>> {
     match format {
         ImageFormat::Svg => Ok(svg.into_bytes()),
         ImageFormat::Png => svg_to_png(&svg, PNG_DPI),

@@ -37,6 +37,7 @@ pub mod density;
 pub mod export;
 mod fields_layer;
 pub mod figure;
+mod group_layers;
 pub mod labels;
 pub mod layout;
 pub mod mapping;
@@ -52,6 +53,7 @@ pub use fields_layer::choose_field_sets;
 pub use figure::{
     DensityMode, Figure, FigureBuilder, FigureOptions, GridStep, GroupBy, Groups, Panel, PlotPoint,
 };
+pub use group_layers::group_overlays;
 pub use mapping::{PagePoint, TernaryMapping};
 pub use overlay::{LabelledPolygon, MeanMarker, PolygonLayer, Region, RegionKind, RegionLayer};
 pub use palette::{MarkerShape, Rgb, Symbol, MAX_GROUPS};
