@@ -3,7 +3,8 @@
 
 use crate::error::Result;
 use crate::input::{CountReader, ReadOptions};
-use crate::report::{Dataset, ReportOptions};
+use crate::petrofacies::Table;
+use crate::report::ReportOptions;
 
 /// The demo table's name in messages and reports.
 pub const DEMO_NAME: &str = "kessra-basin-counts.csv (invented demo data)";
@@ -19,10 +20,10 @@ pub const DEMO_COUNTS: &str = include_str!("../../demo/kessra-basin-counts.csv")
 /// assert_eq!(d.samples.len(), 40);
 /// assert!(d.metadata.contains(&"formation".to_string()));
 /// ```
-pub fn dataset() -> Result<Dataset> {
+pub fn dataset() -> Result<Table> {
     let reader =
         CountReader::from_reader(DEMO_NAME, DEMO_COUNTS.as_bytes(), ReadOptions::default())?;
-    Dataset::read(reader)
+    Table::read(reader)
 }
 
 /// The report options the demo uses: grouped by formation, with the stratigraphic height.

@@ -7,8 +7,7 @@ use provenance_core::output::{check_not_input, AtomicFile};
 use provenance_core::petrofacies::{GroupOptions, Petrofacies, Table};
 use provenance_core::plot::export::{render, ImageFormat};
 use provenance_core::plot::{
-    choose_field_sets, group_overlays, DensityMode, Figure, FigureOptions, FigureSize, GridStep,
-    GroupBy, PolygonLayer,
+    choose_field_sets, DensityMode, Figure, FigureOptions, FigureSize, GridStep, GroupBy,
 };
 use std::io::Write;
 
@@ -65,23 +64,9 @@ pub fn run(a: PlotArgs) -> Result<()> {
             builder.push(sample)?;
         }
         let column = table.column(by)?;
-        let result = Petrofacies::of(table, &column, GroupOptions::default())?;
-        let level = result.options.level;
-        for i in 0..diagrams.len() {
-            let (means, regions) = group_overlays(
-                diagrams[i],
-                &result.groups,
-                |name| builder.group_index(name),
-                level,
-            );
-            let panel = &mut builder.panels_mut()[i];
-            panel.means = means;
-            panel.regions = Some(regions);
-        }
+        builder.draw_group_means(&Petrofacies::of(table, &column, GroupOptions::default())?);
     }
-    for (panel, set) in builder.panels_mut().iter_mut().zip(&field_sets) {
-        panel.fields = set.as_ref().map(PolygonLayer::from_field_set);
-    }
+    builder.draw_field_sets(&field_sets);
     let bytes = render(&builder.finish(options), format)?;
 
     let mut file = AtomicFile::create(&a.output)?;

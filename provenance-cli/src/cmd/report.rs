@@ -2,10 +2,11 @@
 
 use crate::cli::ReportArgs;
 use provenance_core::error::Result;
-use provenance_core::report::{build, Dataset, ReportOptions};
+use provenance_core::petrofacies::Table;
+use provenance_core::report::{build, ReportOptions};
 
 pub fn run(a: ReportArgs) -> Result<()> {
-    let data = Dataset::read(super::open_counts(&a.input)?)?;
+    let data = Table::read(super::open_counts(&a.input)?)?;
     let options = ReportOptions {
         by: a.by,
         height: a.height,

@@ -1,9 +1,12 @@
 //! Petrofacies group means and their regions as figure overlays.
 
+use super::figure::FigureBuilder;
+use super::overlay::PolygonLayer;
 use super::overlay::{MeanMarker, Region, RegionKind, RegionLayer};
 use crate::diagram::Diagram;
+use crate::fields::FieldSet;
 use crate::geometry::Polygon;
-use crate::petrofacies::GroupSummary;
+use crate::petrofacies::{GroupSummary, Petrofacies};
 
 /// The mean markers and regions of `groups` on one diagram: each group's closed geometric mean,
 /// its confidence region of the mean (solid) and its prediction region for a new sample
@@ -63,4 +66,53 @@ pub fn group_overlays(
         regions,
     };
     (means, layer)
+}
+
+impl FigureBuilder {
+    /// Draw `sets[i]` (when present) on panel `i`; see [`super::choose_field_sets`].
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::diagram::Diagram;
+    /// use provenance_core::plot::{choose_field_sets, Figure};
+    /// let mut b = Figure::builder(&[Diagram::Qfl], None);
+    /// b.draw_field_sets(&choose_field_sets(&[Diagram::Qfl], &[]).unwrap());
+    /// assert_eq!(b.panels_mut()[0].fields.as_ref().unwrap().polygons.len(), 7);
+    /// ```
+    pub fn draw_field_sets(&mut self, sets: &[Option<FieldSet>]) {
+        for (panel, set) in self.panels_mut().iter_mut().zip(sets) {
+            panel.fields = set.as_ref().map(PolygonLayer::from_field_set);
+        }
+    }
+
+    /// Draw every group's mean and regions (see [`group_overlays`]) on every panel. Call it
+    /// after pushing the samples, so that group colours are known.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::diagram::Diagram;
+    /// use provenance_core::petrofacies::{GroupOptions, Petrofacies};
+    /// use provenance_core::plot::{Figure, GroupBy};
+    /// let table = provenance_core::demo::dataset().unwrap();
+    /// let by = table.column("formation").unwrap();
+    /// let result = Petrofacies::of(&table, &by, GroupOptions::default()).unwrap();
+    /// let group_by = GroupBy { file: table.file.clone(), column: "formation".into(), index: 0, file_column: 2 };
+    /// let mut b = Figure::builder(&[Diagram::Qfl], Some(group_by));
+    /// for s in &table.samples { b.push(s).unwrap(); }
+    /// b.draw_group_means(&result);
+    /// assert_eq!(b.panels_mut()[0].means.len(), 3);
+    /// ```
+    pub fn draw_group_means(&mut self, result: &Petrofacies) {
+        let level = result.options.level;
+        let overlays: Vec<_> = (0..self.panels_mut().len())
+            .map(|i| {
+                let d = self.panels_mut()[i].diagram;
+                group_overlays(d, &result.groups, |name| self.group_index(name), level)
+            })
+            .collect();
+        for (panel, (means, regions)) in self.panels_mut().iter_mut().zip(overlays) {
+            panel.means = means;
+            panel.regions = Some(regions);
+        }
+    }
 }

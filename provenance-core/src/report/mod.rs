@@ -2,76 +2,21 @@
 //! CSS and SVG, no external requests), with the machine-readable tables beside it.
 
 mod dir;
+mod figures;
 pub mod html;
 mod sections;
 
 pub use dir::{ReportFiles, MARKER};
 
-use crate::counts::Sample;
 use crate::error::{Error, Result};
 use crate::fields::FieldSet;
-use crate::input::CountReader;
 use crate::modes::SampleModes;
 use crate::naming::{Naming, SchemeSet};
 use crate::output::{ModesJson, ModesTable, NamesJson, NamesTable};
+use crate::petrofacies::{
+    ChangeOptions, ChangePoints, GroupOptions, Ordering, Petrofacies, Section, Table,
+};
 use crate::setting::{Locator, SampleSetting, SettingJson, SettingTable};
-
-/// A count table held in memory for reporting.
-///
-/// # Example
-/// ```
-/// use provenance_core::input::{CountReader, ReadOptions};
-/// use provenance_core::report::Dataset;
-/// let t = "sample,Qm,Qp,P,K,Lv,Ls,Lm,formation\nA,10,1,2,3,4,5,6,Upper\n";
-/// let r = CountReader::from_reader("t.csv", t.as_bytes(), ReadOptions::default()).unwrap();
-/// let d = Dataset::read(r).unwrap();
-/// assert_eq!(d.samples.len(), 1);
-/// assert_eq!(d.column("formation").unwrap(), vec!["Upper"]);
-/// assert!(d.column("height").is_err());
-/// ```
-#[derive(Debug, Clone)]
-pub struct Dataset {
-    /// The input's name, as the user gave it.
-    pub source: String,
-    /// Metadata column names.
-    pub metadata: Vec<String>,
-    /// The samples, in table order.
-    pub samples: Vec<Sample>,
-}
-
-impl Dataset {
-    /// Read every sample of a table (refusing the table on the first bad row).
-    pub fn read(reader: CountReader) -> Result<Dataset> {
-        let source = reader.file().to_string();
-        let metadata = reader.metadata_columns().to_vec();
-        let samples = reader.collect::<Result<Vec<_>>>()?;
-        Ok(Dataset {
-            source,
-            metadata,
-            samples,
-        })
-    }
-
-    /// The values of one metadata column (matched ignoring case), or a usage error naming the
-    /// columns there are.
-    pub fn column(&self, name: &str) -> Result<Vec<&str>> {
-        let i = self
-            .metadata
-            .iter()
-            .position(|m| m.eq_ignore_ascii_case(name.trim()))
-            .ok_or_else(|| Error::Usage {
-                message: format!(
-                    "{}: no metadata column {name:?}, expected one of {:?}",
-                    self.source, self.metadata
-                ),
-            })?;
-        Ok(self
-            .samples
-            .iter()
-            .map(|s| s.metadata[i].as_str())
-            .collect())
-    }
-}
 
 /// What the report should contain beyond the defaults.
 ///
@@ -92,9 +37,11 @@ pub struct ReportOptions {
 
 /// Everything computed once for the report.
 pub(crate) struct Computed<'a> {
-    pub data: &'a Dataset,
+    pub data: &'a Table,
     pub modes: Vec<SampleModes>,
-    pub groups: Option<Vec<&'a str>>,
+    pub groups: Option<Vec<String>>,
+    pub petrofacies: Option<Petrofacies>,
+    pub section: Option<(Section, ChangePoints)>,
     pub schemes: SchemeSet,
     pub names: Vec<Vec<Naming>>,
     pub locator: Locator,
@@ -128,31 +75,60 @@ fn locator(specs: &[String]) -> Result<Locator> {
 /// # Example
 /// ```
 /// use provenance_core::input::{CountReader, ReadOptions};
-/// use provenance_core::report::{build, Dataset, ReportOptions};
+/// use provenance_core::petrofacies::Table;
+/// use provenance_core::report::{build, ReportOptions};
 /// let t = "sample,Qm,Qp,P,K,Lv,Ls,Lm\n<b>A</b>,10,1,2,3,4,5,6\n";
 /// let r = CountReader::from_reader("t.csv", t.as_bytes(), ReadOptions::default()).unwrap();
-/// let files = build(&Dataset::read(r).unwrap(), &ReportOptions::default()).unwrap();
+/// let files = build(&Table::read(r).unwrap(), &ReportOptions::default()).unwrap();
 /// let html = String::from_utf8(files.files()[0].1.clone()).unwrap();
 /// assert!(html.contains("&lt;b&gt;A&lt;/b&gt;") && !html.contains("<b>A</b>"));
 /// ```
-pub fn build(data: &Dataset, options: &ReportOptions) -> Result<ReportFiles> {
-    let groups = options.by.as_deref().map(|b| data.column(b)).transpose()?;
-    if let Some(h) = options.height.as_deref() {
-        data.column(h)?;
-    }
+pub fn build(data: &Table, options: &ReportOptions) -> Result<ReportFiles> {
+    let by = options.by.as_deref().map(|b| data.column(b)).transpose()?;
+    let groups = by
+        .as_ref()
+        .map(|b| {
+            data.samples
+                .iter()
+                .map(|s| b.group_name(data, s))
+                .collect::<Result<Vec<_>>>()
+        })
+        .transpose()?;
+    let petrofacies = by
+        .as_ref()
+        .map(|b| Petrofacies::of(data, b, GroupOptions::default()))
+        .transpose()?;
+    let section = match options.height.as_deref() {
+        None => None,
+        Some(h) => {
+            let position = data.column(h)?;
+            let section = Section::of(data, &position, Ordering::Height, by.as_ref())?;
+            let changes = ChangePoints::of_section(&section, &ChangeOptions::default())?;
+            Some((section, changes))
+        }
+    };
     let schemes = SchemeSet::standard();
     let locator = locator(&options.fields)?;
     let c = Computed {
         data,
         modes: data.samples.iter().map(SampleModes::of).collect(),
         groups,
+        petrofacies,
+        section,
         names: data.samples.iter().map(|s| schemes.classify(s)).collect(),
         settings: data.samples.iter().map(|s| locator.locate(s)).collect(),
         schemes,
         locator,
     };
+    let figs = figures::figures(&c, options.by.as_deref())?;
     let mut files = ReportFiles::default();
-    files.add("report.html", sections::page(&c, options).into_bytes());
+    files.add(
+        "report.html",
+        sections::page(&c, options, &figs).into_bytes(),
+    );
+    for f in &figs {
+        files.add(format!("figures/{}", f.file), f.svg.clone().into_bytes());
+    }
     files.add("modes.csv", modes_csv(&c));
     files.add("names.csv", names_csv(&c));
     files.add("setting.csv", setting_csv(&c));
@@ -236,13 +212,21 @@ fn results_json(c: &Computed) -> Result<Vec<u8>> {
         })
         .collect();
     let doc = serde_json::json!({
-        "source": c.data.source,
+        "source": c.data.file,
         "generator": format!("sandprov {}", env!("CARGO_PKG_VERSION")),
         "samples": c.data.samples.len(),
         "caution": sections::CAUTION,
         "modes": modes,
         "names": names,
         "setting": setting,
+        "groups": c.petrofacies.as_ref().map(|p| {
+            serde_json::from_slice::<serde_json::Value>(&crate::output::groups_table::groups_json(p))
+                .unwrap_or(serde_json::Value::Null)
+        }),
+        "changes": c.section.as_ref().map(|(_, ch)| {
+            serde_json::from_slice::<serde_json::Value>(&crate::output::changes_table::changes_json(ch))
+                .unwrap_or(serde_json::Value::Null)
+        }),
     });
     serde_json::to_vec_pretty(&doc).map_err(|e| Error::Usage {
         message: format!("results.json could not be serialised: {e}"),
