@@ -4,6 +4,7 @@
 mod cli;
 mod cmd;
 mod exit;
+mod progress;
 
 use clap::Parser;
 
