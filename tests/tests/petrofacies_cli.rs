@@ -382,12 +382,33 @@ fn hostile_group_names_cannot_inject_markup() {
 }
 
 #[test]
-fn section_refuses_other_figure_formats_and_bad_columns() {
+fn section_writes_png_and_pdf_from_the_same_figure() {
+    let sb = Sandbox::new();
+    for (name, magic) in [("s.png", &b"\x89PNG"[..]), ("s.pdf", &b"%PDF-"[..])] {
+        sb.sandprov()
+            .args([
+                "section",
+                "--height",
+                "height_m",
+                "--by",
+                "formation",
+                "-o",
+                name,
+            ])
+            .arg(demo_counts())
+            .assert()
+            .success();
+        let bytes = std::fs::read(sb.path(name)).unwrap();
+        assert!(bytes.starts_with(magic), "{name}");
+    }
+}
+
+#[test]
+fn section_refuses_unknown_figure_formats_and_bad_columns() {
     let sb = Sandbox::new();
     for (args, code, words) in [
-        (vec!["-o", "s.png"], 2, "SVG only"),
-        (vec!["-o", "s.pdf"], 2, "SVG only"),
-        (vec!["-o", "s.txt"], 2, ".svg"),
+        (vec!["-o", "s.txt"], 2, ".svg, .png or .pdf"),
+        (vec!["-o", "s.jpg"], 2, ".svg, .png or .pdf"),
         (
             vec!["-o", "s.svg", "--changes", "c.txt"],
             2,
