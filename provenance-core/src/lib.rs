@@ -41,6 +41,7 @@ pub mod error;
 pub mod geometry;
 pub mod input;
 pub mod logratio;
+pub mod membership;
 pub mod modes;
 pub mod output;
 pub mod stats;

@@ -1,10 +1,12 @@
 //! Writing results: number formatting, CSV and JSON tables, atomic files.
 
 pub mod atomic;
+pub mod membership;
 pub mod modes_table;
 pub mod number;
 
 pub use atomic::{check_not_input, AtomicFile, Sink};
+pub use membership::{column_slug, MembershipColumns, MembershipJson};
 pub use modes_table::{ModesJson, ModesTable};
 
 /// Output table format.
