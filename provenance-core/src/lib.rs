@@ -34,6 +34,7 @@
 #![deny(missing_docs)]
 
 pub mod batch;
+pub mod classifier;
 pub mod composition;
 pub mod counts;
 pub mod diagram;
