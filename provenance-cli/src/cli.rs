@@ -19,6 +19,9 @@ pub enum Command {
     Modes(ModesArgs),
     /// Points to count for a target precision (Van der Plas & Tobi 1965).
     Plan(PlanArgs),
+    /// Fit a provenance classifier (multinomial logistic regression on ilr coordinates) to
+    /// labelled reference samples, cross-validate it and save it.
+    Train(TrainArgs),
 }
 
 /// Where the counts come from and how to read them.
@@ -67,4 +70,26 @@ pub struct PlanArgs {
     /// default: a table from 5 to 50.
     #[arg(long = "proportion", value_name = "P")]
     pub proportions: Vec<f64>,
+}
+
+/// `sandprov train`.
+#[derive(Debug, Args)]
+pub struct TrainArgs {
+    #[command(flatten)]
+    pub input: InputArgs,
+    /// The metadata column holding each sample's class (for example its known setting).
+    #[arg(long, value_name = "COLUMN")]
+    pub label: String,
+    /// The composition to classify: a diagram, or `framework` (Qm, Qp+C, P, K, Lv, Ls, Lm).
+    #[arg(long, value_name = "COMPOSITION", value_parser = ["qfl", "qmflt", "qmpk", "qplvlsm", "lmlvls", "framework"])]
+    pub diagram: String,
+    /// L2 penalty α (scikit-learn's 1/C); 0 for unpenalised maximum likelihood.
+    #[arg(long, value_name = "ALPHA", allow_negative_numbers = true, default_value_t = provenance_core::classifier::DEFAULT_L2)]
+    pub l2: f64,
+    /// Folds of the stratified cross-validation (at least 2; 0 skips it).
+    #[arg(long, value_name = "K", default_value_t = provenance_core::classifier::DEFAULT_FOLDS)]
+    pub folds: usize,
+    /// The model file to write (JSON, written whole or not at all).
+    #[arg(short = 'o', long = "output", value_name = "MODEL.json")]
+    pub output: PathBuf,
 }

@@ -2,6 +2,7 @@
 
 mod modes;
 mod plan;
+mod train;
 
 use crate::cli::{Cli, Command, InputArgs};
 use provenance_core::error::Result;
@@ -12,6 +13,7 @@ pub fn run(cli: Cli) -> Result<()> {
     match cli.command {
         Command::Modes(a) => modes::run(a),
         Command::Plan(a) => plan::run(a),
+        Command::Train(a) => train::run(a),
     }
 }
 

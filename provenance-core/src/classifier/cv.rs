@@ -82,7 +82,7 @@ pub fn cross_validate(
     for (c, n) in set.class_counts() {
         if n < k {
             return Err(Error::Training {
-                file: "training data".into(),
+                file: set.name().to_string(),
                 message: format!(
                     "class {c:?} has {n} sample(s), too few for {k}-fold cross-validation"
                 ),
@@ -131,4 +131,55 @@ pub fn cross_validate(
         classes,
         confusion,
     })
+}
+
+impl std::fmt::Display for CrossValidation {
+    /// Accuracy, log-loss and the confusion matrix as a plain-text table.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::classifier::CrossValidation;
+    /// let cv = CrossValidation {
+    ///     folds: 5,
+    ///     accuracy: 0.9,
+    ///     log_loss: 0.25,
+    ///     classes: vec!["arc".into(), "craton".into()],
+    ///     confusion: vec![vec![9, 1], vec![1, 9]],
+    /// };
+    /// let t = cv.to_string();
+    /// assert!(t.starts_with("5-fold cross-validation: accuracy 0.9000, log-loss 0.2500\n"));
+    /// let row: Vec<&str> = t.lines().nth(3).unwrap().split_whitespace().collect();
+    /// assert_eq!(row, ["arc", "9", "1"]);
+    /// ```
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        writeln!(
+            f,
+            "{}-fold cross-validation: accuracy {:.4}, log-loss {:.4}",
+            self.folds, self.accuracy, self.log_loss
+        )?;
+        writeln!(
+            f,
+            "confusion matrix (rows: true class, columns: predicted class)"
+        )?;
+        let width = self
+            .classes
+            .iter()
+            .map(|c| c.chars().count())
+            .chain(std::iter::once(5))
+            .max()
+            .unwrap_or(5);
+        write!(f, "{:width$}", "")?;
+        for c in &self.classes {
+            write!(f, "  {c:>width$}")?;
+        }
+        writeln!(f)?;
+        for (c, row) in self.classes.iter().zip(&self.confusion) {
+            write!(f, "{c:width$}")?;
+            for v in row {
+                write!(f, "  {v:>width$}")?;
+            }
+            writeln!(f)?;
+        }
+        Ok(())
+    }
 }

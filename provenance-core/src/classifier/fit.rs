@@ -197,7 +197,7 @@ pub fn fit(set: &TrainingSet, options: &FitOptions) -> Result<LogisticFit> {
     options.check()?;
     let classes = set.classes();
     let refuse = |message: String, expected: &str| Error::Training {
-        file: "training data".into(),
+        file: set.name().to_string(),
         message,
         expected: expected.into(),
     };

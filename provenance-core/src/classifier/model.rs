@@ -141,6 +141,42 @@ impl Model {
         }
     }
 
+    /// A plain-text summary: data, penalty, convergence and cross-validation.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::classifier::{fit, FeatureSpace, FitOptions, Model, TrainingSet};
+    /// use provenance_core::counts::Counting;
+    /// use provenance_core::diagram::Diagram;
+    /// let mut t = TrainingSet::new(FeatureSpace::Diagram(Diagram::Qmpk));
+    /// t.push_amounts("k-rich", &[50.0, 10.0, 40.0], Counting::Counted).unwrap();
+    /// t.push_amounts("p-rich", &[50.0, 40.0, 10.0], Counting::Counted).unwrap();
+    /// let m = Model::new(fit(&t, &FitOptions::default()).unwrap(), &t, "2025-01-01", "two sands", None);
+    /// assert!(m.summary().starts_with("multinomial logistic regression on 2 samples, qmpk (ilr1, ilr2), 2 classes, l2 = 1\n"));
+    /// ```
+    pub fn summary(&self) -> String {
+        let c = &self.convergence;
+        let mut s = format!(
+            "{} on {} samples, {} ({}), {} classes, l2 = {}\n",
+            self.kind,
+            self.training.samples,
+            self.features.composition,
+            self.features.names.join(", "),
+            self.classes.len(),
+            self.l2
+        );
+        s += &format!("data checksum {}\n", self.training.checksum);
+        s += &format!(
+            "converged: largest gradient component {:.2e} (tolerance {:.0e}), training log-loss {:.4}\n",
+            c.gradient_max, c.tolerance, c.training_log_loss
+        );
+        match &self.cross_validation {
+            Some(cv) => s += &cv.to_string(),
+            None => s += "cross-validation skipped\n",
+        }
+        s
+    }
+
     /// Class probabilities for a feature vector, in class order.
     pub fn probabilities_of_features(&self, z: &[f64]) -> Vec<f64> {
         softmax(&self.weights, &self.intercepts, z)

@@ -26,6 +26,7 @@ pub struct TrainingSet {
     features: Vec<Vec<f64>>,
     labels: Vec<String>,
     hasher: Sha256,
+    name: String,
 }
 
 impl TrainingSet {
@@ -36,6 +37,7 @@ impl TrainingSet {
             features: Vec::new(),
             labels: Vec::new(),
             hasher: Sha256::new(),
+            name: "training data".into(),
         }
     }
 
@@ -59,6 +61,17 @@ impl TrainingSet {
         self.features.push(z);
         self.labels.push(label.to_string());
         Ok(())
+    }
+
+    /// The name used in messages: the file read, or "training data".
+    pub fn name(&self) -> &str {
+        &self.name
+    }
+
+    /// The same set under another name for messages.
+    pub fn named(mut self, name: &str) -> TrainingSet {
+        self.name = name.to_string();
+        self
     }
 
     /// The feature space.
@@ -125,6 +138,7 @@ impl TrainingSet {
             features: rows.iter().map(|i| self.features[*i].clone()).collect(),
             labels: rows.iter().map(|i| self.labels[*i].clone()).collect(),
             hasher: Sha256::new(),
+            name: self.name.clone(),
         }
     }
 
@@ -169,7 +183,7 @@ impl TrainingSet {
             .position(|h| *h == name)
             .map_or(0, |i| i + 1);
         let column = Column { index, name };
-        let mut set = TrainingSet::new(space);
+        let mut set = TrainingSet::new(space).named(&file);
         for sample in reader {
             let s = sample?;
             let at = || Location::new(&file).line(s.line).column(column.clone());
