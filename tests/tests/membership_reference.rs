@@ -64,11 +64,11 @@ fn sampled_membership_matches_the_scipy_beta_tail() {
 }
 
 #[test]
-fn default_membership_with_its_shortcut_matches_the_scipy_beta_tail() {
+fn default_membership_with_its_exact_methods_matches_the_scipy_beta_tail() {
     let field = q_field();
     let set: [(&str, &Polygon); 1] = [("Q at least 60", &field)];
     let est = Estimator::new(&set[..], MembershipOptions::default()).unwrap();
-    let mut bounded = 0;
+    let (mut bounded, mut integrated) = (0, 0);
     for (i, (counts, exact)) in cases().into_iter().enumerate() {
         let m = est.estimate(&Posterior::jeffreys(counts).unwrap(), i as u64, 0);
         match m.method() {
@@ -85,6 +85,14 @@ fn default_membership_with_its_shortcut_matches_the_scipy_beta_tail() {
                     "{counts:?}: exact {other} above bound {max_error}"
                 );
             }
+            Method::Integrated => {
+                integrated += 1;
+                let got = m.probability(0);
+                assert!(
+                    (got - exact).abs() < 1e-8,
+                    "{counts:?}: integrated {got}, SciPy {exact}"
+                );
+            }
             Method::Sampled { draws } => {
                 let se = (exact * (1.0 - exact) / draws as f64)
                     .sqrt()
@@ -94,8 +102,9 @@ fn default_membership_with_its_shortcut_matches_the_scipy_beta_tail() {
             }
         }
     }
-    // (0, 200, 100) and (285, 10, 5) are far from the line and take the shortcut.
-    assert_eq!(bounded, 2);
+    // (0, 200, 100) and (285, 10, 5) are far from the line and take the shortcut; (30, 10, 0)
+    // has a zero pole and is sampled; the other five are integrated.
+    assert_eq!((bounded, integrated), (2, 5));
 }
 
 #[test]

@@ -45,15 +45,18 @@
 //! ```
 
 mod estimate;
+mod integrate;
 mod posterior;
 mod region;
 mod regions;
+mod sampler;
 mod summary;
 
 pub use estimate::{
     Estimator, Membership, MembershipOptions, Method, Top, AMBIGUOUS_BELOW,
-    DEFAULT_BOUND_TOLERANCE, DEFAULT_DRAWS,
+    DEFAULT_BOUND_TOLERANCE, DEFAULT_DRAWS, INTEGRATION_ACCURACY,
 };
+pub use integrate::INTEGRATE_MIN_COUNT;
 pub use posterior::{stream, Posterior, DEFAULT_SEED, JEFFREYS};
 pub use region::{ConfidenceRegion, CURVE_POINTS, REGION_LEVEL};
 pub use regions::{Region, RegionIndex, Regions};

@@ -112,8 +112,9 @@ const NONE: u32 = u32::MAX - 1;
 /// A point-location index over an ordered region set.
 ///
 /// The triangle is cut into a 128 × 128 grid in the (c, a) plane. A cell that no polygon edge
-/// touches has the same containment everywhere, decided once at its centre; only cells that an
-/// edge crosses test the point exactly with [`Polygon::contains`]. [`RegionIndex::locate`]
+/// inside the triangle touches has the same containment at every point with three positive
+/// parts, decided once at a representative point; only cells that such an edge crosses, and
+/// points on or beyond the triangle's sides, are tested exactly with [`Polygon::contains`]. [`RegionIndex::locate`]
 /// therefore returns exactly what a scan of the regions in order with [`Polygon::contains`]
 /// returns, including its shared-edge rule.
 ///
@@ -132,6 +133,12 @@ pub struct RegionIndex {
     polygons: Vec<Polygon>,
     /// Polygon edges that do not lie on a side of the triangle, in the plane.
     inner_edges: Vec<(Cartesian, Cartesian)>,
+    /// Every non-horizontal edge as (a₀, a₁, c at a₀, dc/da) with a₀ < a₁, percent.
+    spans: Vec<(f64, f64, f64, f64)>,
+    /// Whether each span lies on a side of the triangle.
+    span_on_side: Vec<bool>,
+    /// Distinct vertex levels of the A pole, sorted, percent.
+    levels: Vec<f64>,
     fast: Vec<u32>,
     starts: Vec<u32>,
     entries: Vec<u32>,
@@ -163,6 +170,11 @@ impl RegionIndex {
             let v = poly.vertices();
             for k in 0..v.len() {
                 let (a, b) = (v[k], v[(k + 1) % v.len()]);
+                // An edge on a side of the triangle is never crossed by a composition with three
+                // positive parts, which is all `locate` answers from the grid.
+                if (0..3).any(|pole| a[pole].abs() < 1e-9 && b[pole].abs() < 1e-9) {
+                    continue;
+                }
                 let (u, w) = ((a[2], a[0]), (b[2], b[0]));
                 let lo = |t: f64| (((t - PAD) / cell).floor().max(0.0) as usize).min(GRID - 1);
                 let hi = |t: f64| (((t + PAD) / cell).floor().max(0.0) as usize).min(GRID - 1);
@@ -184,11 +196,20 @@ impl RegionIndex {
             for i in 0..GRID {
                 let id = j * GRID + i;
                 starts.push(entries.len() as u32);
-                let (a, c) = ((j as f64 + 0.5) * cell, (i as f64 + 0.5) * cell);
+                // A representative point of the cell inside the triangle: the centre, or for
+                // cells cut by the side b = 0 a point near the lower-left corner; cells with
+                // no such point test every polygon exactly.
+                let (x0, y0) = (i as f64 * cell, j as f64 * cell);
+                let (a, c) = if x0 + y0 + cell < 100.0 {
+                    (y0 + 0.5 * cell, x0 + 0.5 * cell)
+                } else {
+                    (y0 + 0.25 * cell, x0 + 0.25 * cell)
+                };
+                let outside_triangle = x0 + y0 + 0.5 * cell >= 100.0;
                 let centre = [a, 100.0 - a - c, c];
                 let mut list = Vec::new();
                 for (r, poly) in polygons.iter().enumerate() {
-                    if touched[r][id] {
+                    if touched[r][id] || outside_triangle {
                         list.push(r as u32 | CHECK);
                     } else if poly.contains(centre) {
                         list.push(r as u32);
@@ -205,6 +226,7 @@ impl RegionIndex {
         }
         starts.push(entries.len() as u32);
         let mut inner_edges = Vec::new();
+        let (mut spans, mut span_on_side, mut levels) = (Vec::new(), Vec::new(), Vec::new());
         for poly in &polygons {
             let (v, q) = (poly.vertices(), poly.plane());
             for k in 0..v.len() {
@@ -214,11 +236,25 @@ impl RegionIndex {
                 if !on_side {
                     inner_edges.push((q[k], q[k1]));
                 }
+                levels.push(v[k][0]);
+                let (mut u, mut w) = (v[k], v[k1]);
+                if u[0] > w[0] {
+                    std::mem::swap(&mut u, &mut w);
+                }
+                if w[0] > u[0] {
+                    spans.push((u[0], w[0], u[2], (w[2] - u[2]) / (w[0] - u[0])));
+                    span_on_side.push(on_side);
+                }
             }
         }
+        levels.sort_by(f64::total_cmp);
+        levels.dedup();
         RegionIndex {
             polygons,
             inner_edges,
+            spans,
+            span_on_side,
+            levels,
             fast,
             starts,
             entries,
@@ -242,11 +278,20 @@ impl RegionIndex {
         let i = ((p[2] * scale) as usize).min(GRID - 1);
         let j = ((p[0] * scale) as usize).min(GRID - 1);
         let id = j * GRID + i;
+        // On or beyond a side of the triangle the grid does not answer (see `new`).
+        if p[0] <= 0.0 || p[2] <= 0.0 || p[0] + p[2] >= 100.0 {
+            return self.scan(p);
+        }
         match self.fast[id] {
             NONE => None,
             MIXED => self.locate_slow(id, p),
             r => Some(r as usize),
         }
+    }
+
+    #[cold]
+    fn scan(&self, p: [f64; 3]) -> Option<usize> {
+        self.polygons.iter().position(|q| q.contains(p))
     }
 
     #[cold]
@@ -259,6 +304,36 @@ impl RegionIndex {
             }
         }
         None
+    }
+
+    /// Distinct levels (percent of the A pole) of all vertices, sorted.
+    pub fn vertex_levels(&self) -> &[f64] {
+        &self.levels
+    }
+
+    /// Append the c values (percent) where region boundaries cross the line of constant A at
+    /// `level` (percent); edges are taken half-open, from their lower end.
+    pub fn crossings(&self, level: f64, out: &mut Vec<f64>) {
+        for &(a0, a1, c0, slope) in &self.spans {
+            if a0 <= level && level < a1 {
+                out.push(c0 + (level - a0) * slope);
+            }
+        }
+    }
+
+    /// The fastest rate (per percent of A) at which a boundary edge crossing the level `level`
+    /// moves t = c/(100 − a) along it, excluding edges on the triangle's sides (t fixed at 0
+    /// or 1 there); 0 when no edge crosses.
+    pub fn t_speed(&self, level: f64) -> f64 {
+        let w = (100.0 - level).max(1e-12);
+        let mut fastest: f64 = 0.0;
+        for (&(a0, a1, c0, slope), &side) in self.spans.iter().zip(&self.span_on_side) {
+            if !side && a0 <= level && level < a1 {
+                let c = c0 + (level - a0) * slope;
+                fastest = fastest.max(((slope * w + c) / (w * w)).abs());
+            }
+        }
+        fastest
     }
 
     /// Shortest distance (percentage points) from `p` to any region's boundary inside the
@@ -348,6 +423,25 @@ mod tests {
                 index.locate([60.0, 40.0 - c, c]),
                 scan(&polys, [60.0, 40.0 - c, c])
             );
+        }
+    }
+
+    #[test]
+    fn index_agrees_with_a_plain_scan_at_random_and_near_the_sides() {
+        use rand::Rng;
+        let set = tiling();
+        let polys: Vec<Polygon> = set.iter().map(|s| s.1.clone()).collect();
+        let index = RegionIndex::new(&set[..]);
+        let mut rng = crate::membership::stream(3, 0, 0);
+        for k in 0..200_000 {
+            let mut x: [f64; 3] = [rng.random(), rng.random(), rng.random()];
+            // Every third point has one part pushed very close to zero.
+            if k % 3 == 0 {
+                x[k % 9 / 3] *= 1e-12;
+            }
+            let s = x[0] + x[1] + x[2];
+            let p = x.map(|v| 100.0 * v / s);
+            assert_eq!(index.locate(p), scan(&polys, p), "{p:?}");
         }
     }
 

@@ -14,8 +14,8 @@ use serde::Serialize;
 ///   decimals; `null` when unavailable;
 /// - `"top"`: `{"field": name or null for outside, "probability": p}`;
 /// - `"ambiguous"`: true when the top probability is below the threshold;
-/// - `"membership_error"`: `{"method": "sampled", "draws": N, "standard_error": se}` or
-///   `{"method": "bound", "max_error": ε}`;
+/// - `"membership_error"`: `{"method": "sampled", "draws": N, "standard_error": se}`,
+///   `{"method": "bound", "max_error": ε}` or `{"method": "integrated", "accuracy": 1e-6}`;
 /// - `"region95"`: `{"level": 0.95, "centre": [a, b, c], "curve": [[a, b, c], …]}` in percent,
 ///   a closed curve whose last point repeats the first;
 /// - `"membership_note"`: why membership is unavailable, when it is.
@@ -91,6 +91,10 @@ impl Serialize for ErrorJson {
             Method::Bound { max_error } => {
                 m.serialize_entry("method", "bound")?;
                 m.serialize_entry("max_error", &max_error)?;
+            }
+            Method::Integrated => {
+                m.serialize_entry("method", "integrated")?;
+                m.serialize_entry("accuracy", &self.1)?;
             }
         }
         m.end()
