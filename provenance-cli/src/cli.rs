@@ -22,6 +22,12 @@ pub enum Command {
     /// Fit a provenance classifier (multinomial logistic regression on ilr coordinates) to
     /// labelled reference samples, cross-validate it and save it.
     Train(TrainArgs),
+    /// Provenance field sets: list the embedded ones, show one, check a set file.
+    #[command(subcommand)]
+    Fields(FieldsCommand),
+    /// Tectonic setting: the provenance field each sample falls in on each diagram, and the
+    /// kinds of basin such sand typically reaches.
+    Setting(SettingArgs),
 }
 
 /// Where the counts come from and how to read them.
@@ -92,4 +98,41 @@ pub struct TrainArgs {
     /// The model file to write (JSON, written whole or not at all).
     #[arg(short = 'o', long = "output", value_name = "MODEL.json")]
     pub output: PathBuf,
+}
+
+/// `sandprov fields …`.
+#[derive(Debug, Subcommand)]
+pub enum FieldsCommand {
+    /// One line per embedded field set: the id, then the title.
+    List,
+    /// Print a field set: source, note, and each field's group and vertices.
+    Show {
+        /// An embedded set id or a field-set file (TOML).
+        #[arg(value_name = "ID|FILE")]
+        set: String,
+        /// Output format.
+        #[arg(long, default_value = "text", value_parser = ["text", "json"])]
+        format: String,
+    },
+    /// Validate a field set: vertices sum to 100 and lie in the triangle, polygons are
+    /// simple, fields do not overlap; report overlap and uncovered areas and where gaps lie.
+    /// Exits with 3 when the set is invalid.
+    Check {
+        /// A field-set file (TOML) or an embedded set id.
+        #[arg(value_name = "FILE|ID")]
+        set: String,
+    },
+}
+
+/// `sandprov setting`.
+#[derive(Debug, Args)]
+pub struct SettingArgs {
+    #[command(flatten)]
+    pub input: InputArgs,
+    #[command(flatten)]
+    pub output: OutputArgs,
+    /// Field sets to look samples up in, one per diagram (repeatable): an embedded id or a
+    /// field-set file. Default: every embedded set.
+    #[arg(long = "fields", value_name = "ID|FILE")]
+    pub fields: Vec<String>,
 }

@@ -217,6 +217,22 @@ pub enum Error {
         /// The path.
         path: String,
     },
+    /// A `--fields` value is neither an embedded field-set id nor a file.
+    #[error("unknown field set {spec:?}: not an embedded id and no such file, expected one of {known} or the path of a field-set file")]
+    UnknownFieldSet {
+        /// The value given.
+        spec: String,
+        /// The embedded ids, comma-separated.
+        known: String,
+    },
+    /// A field set failed its check (bad vertices, non-simple polygons, overlapping fields).
+    #[error("{file}: the field set is invalid, expected one that passes the field-set check:\n  {}", problems.join("\n  "))]
+    InvalidFieldSet {
+        /// The set's file (or `embedded:ID`).
+        file: String,
+        /// Every problem, each naming its line, key, value and what was expected.
+        problems: Vec<String>,
+    },
     /// The request is inconsistent.
     #[error("{message}")]
     Usage {
@@ -237,7 +253,9 @@ impl Error {
     pub fn kind(&self) -> ErrorKind {
         match self {
             Error::Read { .. } | Error::Write { .. } => ErrorKind::Io,
-            Error::OutputIsInput { .. } | Error::Usage { .. } => ErrorKind::Usage,
+            Error::OutputIsInput { .. } | Error::Usage { .. } | Error::UnknownFieldSet { .. } => {
+                ErrorKind::Usage
+            }
             _ => ErrorKind::Input,
         }
     }

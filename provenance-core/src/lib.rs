@@ -11,6 +11,8 @@
 //! - [`stats`] gives counting error: σ (Van der Plas & Tobi 1965), Wilson and
 //!   Clopper-Pearson intervals, and the points needed for a target precision.
 //! - [`output`] and [`batch`] write tables as CSV or JSON, streaming and atomically.
+//! - [`geometry`] and [`fields`] hold ternary geometry and the published provenance fields;
+//!   [`setting`] looks samples up in them.
 //!
 //! ## Example
 //! ```
@@ -39,12 +41,14 @@ pub mod composition;
 pub mod counts;
 pub mod diagram;
 pub mod error;
+pub mod fields;
 pub mod geometry;
 pub mod input;
 pub mod logratio;
 pub mod membership;
 pub mod modes;
 pub mod output;
+pub mod setting;
 pub mod stats;
 
 /// The types most programs need.

@@ -1,7 +1,9 @@
 //! One module per subcommand; each maps its arguments to core calls.
 
+mod fields;
 mod modes;
 mod plan;
+mod setting;
 mod train;
 
 use crate::cli::{Cli, Command, InputArgs};
@@ -14,6 +16,8 @@ pub fn run(cli: Cli) -> Result<()> {
         Command::Modes(a) => modes::run(a),
         Command::Plan(a) => plan::run(a),
         Command::Train(a) => train::run(a),
+        Command::Fields(c) => fields::run(c),
+        Command::Setting(a) => setting::run(a),
     }
 }
 
