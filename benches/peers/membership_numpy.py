@@ -7,7 +7,8 @@ same crossing-number rule as sandprov (ray toward +c, half-open in a, first regi
 wins); the fraction of draws per region is the membership. Vectorised over chunks of samples.
 Prints the best of three wall-clock times.
 
-Usage: python membership_numpy.py [samples] [draws]
+Usage: python membership_numpy.py [samples] [draws] [regions.json]
+(regions: membership_regions.json, a geometric tiling, or membership_regions_shipped.json.)
 """
 import json
 import sys
@@ -19,6 +20,7 @@ from bench_data import membership_framework, qfl, qmflt
 
 SAMPLES = int(sys.argv[1]) if len(sys.argv) > 1 else 5000
 DRAWS = int(sys.argv[2]) if len(sys.argv) > 2 else 4000
+REGIONS = sys.argv[3] if len(sys.argv) > 3 else "membership_regions.json"
 CHUNK = 50
 
 
@@ -69,7 +71,7 @@ def run(sets, alphas, seed=0):
 
 
 def main():
-    spec = json.load(open("membership_regions.json"))
+    spec = json.load(open(REGIONS))
     sets = [[edges(r["vertices"]) for r in d["regions"]] for d in spec["diagrams"]]
     frameworks = [membership_framework(i) for i in range(SAMPLES)]
     alphas = [np.array([qfl(f) for f in frameworks], float) + 0.5,
@@ -81,7 +83,7 @@ def main():
         res = run(sets, alphas, seed=rep)
         times.append(time.perf_counter() - t)
     qfl_mean = np.vstack(res[: len(res) // 2]).mean(axis=0)
-    print(f"numpy {np.__version__}: {SAMPLES} samples x {DRAWS} draws x 2 region sets")
+    print(f"numpy {np.__version__}: {SAMPLES} samples x {DRAWS} draws x 2 region sets ({REGIONS})")
     print("times (s):", " ".join(f"{t:.3f}" for t in times), f"best {min(times):.3f}")
     print("mean membership, first set:", " ".join(f"{v:.4f}" for v in qfl_mean))
 

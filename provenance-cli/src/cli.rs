@@ -135,4 +135,18 @@ pub struct SettingArgs {
     /// field-set file. Default: every embedded set.
     #[arg(long = "fields", value_name = "ID|FILE")]
     pub fields: Vec<String>,
+    /// Posterior draws per sample and diagram where membership is sampled (10000 keeps the
+    /// Monte Carlo standard error at or below 0.005).
+    #[arg(long, value_name = "N", default_value_t = provenance_core::membership::DEFAULT_DRAWS)]
+    pub draws: u32,
+    /// Seed of the sampled memberships; the same seed gives the same output.
+    #[arg(long, value_name = "S", default_value_t = provenance_core::membership::DEFAULT_SEED)]
+    pub seed: u64,
+    /// Add a classifier's probabilities: a model file from `sandprov train`, or the id of an
+    /// embedded field set for its default model (a smooth version of those fields).
+    #[arg(long, value_name = "MODEL.json|ID")]
+    pub model: Option<String>,
+    /// Leave out membership, the group summary and the classifier (field look-up only).
+    #[arg(long, conflicts_with = "model")]
+    pub no_membership: bool,
 }

@@ -24,11 +24,11 @@ fn bench(c: &mut Criterion) {
     let opts = FitOptions::default();
     let once = fit(&set, &opts).expect("the benchmark fit converges");
     eprintln!(
-        "classifier fit: mean penalised log-loss {:.10}, training log-loss {:.10}, largest gradient {:.2e}, rounds {}",
+        "classifier fit: mean penalised log-loss {:.10}, training log-loss {:.10}, largest gradient {:.2e}, Newton steps {}",
         once.convergence.objective,
         once.convergence.training_log_loss,
         once.convergence.gradient_max,
-        once.convergence.rounds
+        once.convergence.newton_steps
     );
     let mut g = c.benchmark_group("classifier");
     g.sample_size(10).measurement_time(Duration::from_secs(10));

@@ -13,12 +13,22 @@ use provenance_core::geometry::Polygon;
 use provenance_core::membership::{Estimator, MembershipOptions, Method, Posterior};
 use std::time::Duration;
 
-const REGIONS: &str = include_str!("../../benches/peers/membership_regions.json");
+/// A geometric tiling (not provenance fields), and the shipped QFL and QmFLt sets.
+const REGION_FILES: [(&str, &str); 2] = [
+    (
+        "tiling",
+        include_str!("../../benches/peers/membership_regions.json"),
+    ),
+    (
+        "shipped",
+        include_str!("../../benches/peers/membership_regions_shipped.json"),
+    ),
+];
 const SAMPLES: u64 = 5_000;
 const DRAWS: u32 = 4_000;
 
-fn region_sets() -> Vec<Vec<(String, Polygon)>> {
-    let v: serde_json::Value = serde_json::from_str(REGIONS).expect("bench regions parse");
+fn region_sets(text: &str) -> Vec<Vec<(String, Polygon)>> {
+    let v: serde_json::Value = serde_json::from_str(text).expect("bench regions parse");
     v["diagrams"]
         .as_array()
         .expect("diagrams")
@@ -54,7 +64,6 @@ fn region_sets() -> Vec<Vec<(String, Polygon)>> {
 }
 
 fn bench(c: &mut Criterion) {
-    let sets = region_sets();
     let diagrams = [Diagram::Qfl, Diagram::Qmflt];
     let posteriors: Vec<Vec<Posterior>> = diagrams
         .iter()
@@ -71,9 +80,21 @@ fn bench(c: &mut Criterion) {
         .map(|i| common::membership_framework(i).total())
         .sum();
     eprintln!("bench data: {SAMPLES} samples, {points} points in all");
-    let mut g = c.benchmark_group("membership");
+    for (label, text) in REGION_FILES {
+        bench_regions(c, label, &region_sets(text), &posteriors);
+    }
+}
+
+fn bench_regions(
+    c: &mut Criterion,
+    label: &str,
+    sets: &[Vec<(String, Polygon)>],
+    posteriors: &[Vec<Posterior>],
+) {
+    let diagrams = [Diagram::Qfl, Diagram::Qmflt];
+    let mut g = c.benchmark_group(format!("membership {label}"));
     g.sample_size(10)
-        .measurement_time(Duration::from_secs(20))
+        .measurement_time(Duration::from_secs(15))
         .throughput(Throughput::Elements(SAMPLES * u64::from(DRAWS) * 2));
     for (name, shortcut, integrate) in [
         ("5000x4000x2 plain sampling", false, false),
@@ -109,9 +130,12 @@ fn bench(c: &mut Criterion) {
                 format!("{:.4}", s / methods.len() as f64)
             })
             .collect();
-        eprintln!("{name}: mean membership, first set: {}", mean.join(" "));
         eprintln!(
-            "{name}: first set, {} bounded, {} integrated, {} sampled",
+            "{label} {name}: mean membership, first set: {}",
+            mean.join(" ")
+        );
+        eprintln!(
+            "{label} {name}: first set, {} bounded, {} integrated, {} sampled",
             count(|m| matches!(m, Method::Bound { .. })),
             count(|m| matches!(m, Method::Integrated)),
             count(|m| matches!(m, Method::Sampled { .. }))
@@ -124,7 +148,7 @@ fn bench(c: &mut Criterion) {
             b.iter(|| {
                 estimators
                     .iter()
-                    .zip(&posteriors)
+                    .zip(posteriors)
                     .zip(diagrams)
                     .map(|((e, p), d)| e.estimate_many(p, 0, d.index() as u64).len())
                     .sum::<usize>()

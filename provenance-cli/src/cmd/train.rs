@@ -9,7 +9,7 @@ use provenance_core::output::check_not_input;
 
 /// Today's date (UTC), or the date of `SOURCE_DATE_EPOCH` when set, for reproducible rebuilds
 /// (the reproducible-builds.org convention).
-fn today() -> String {
+pub(crate) fn today() -> String {
     let epoch = std::env::var("SOURCE_DATE_EPOCH")
         .ok()
         .and_then(|v| v.trim().parse::<i64>().ok());

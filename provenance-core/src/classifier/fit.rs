@@ -1,5 +1,6 @@
 //! Fitting multinomial logistic regression with linfa-logistic, with our own convergence check.
 
+use super::newton::{evaluate, polish, Problem};
 use super::training::TrainingSet;
 use crate::error::{Error, Result};
 use linfa::prelude::*;
@@ -33,10 +34,10 @@ pub const DEFAULT_TOLERANCE: f64 = 1e-6;
 pub struct FitOptions {
     /// L2 penalty α (0 for unpenalised maximum likelihood).
     pub l2: f64,
-    /// L-BFGS iterations per round.
+    /// L-BFGS iterations of linfa-logistic.
     pub max_iterations: u64,
-    /// Restarts from the last solution while the gradient is still above the tolerance.
-    pub rounds: u32,
+    /// Newton steps allowed to finish the fit when L-BFGS stops short of the tolerance.
+    pub newton_steps: u32,
     /// Convergence tolerance on the largest gradient component (see [`DEFAULT_TOLERANCE`]).
     pub tolerance: f64,
 }
@@ -46,7 +47,7 @@ impl Default for FitOptions {
         FitOptions {
             l2: DEFAULT_L2,
             max_iterations: 500,
-            rounds: 4,
+            newton_steps: 50,
             tolerance: DEFAULT_TOLERANCE,
         }
     }
@@ -59,7 +60,7 @@ impl FitOptions {
         if !self.l2.is_finite() || self.l2 < 0.0 {
             return bad(format!("--l2 {}: expected a penalty of 0 or more", self.l2));
         }
-        if self.max_iterations == 0 || self.rounds == 0 {
+        if self.max_iterations == 0 {
             return bad("no iterations allowed: expected at least one".into());
         }
         if !self.tolerance.is_finite() || self.tolerance <= 0.0 {
@@ -84,8 +85,8 @@ pub struct Convergence {
     pub objective: f64,
     /// The mean log-loss on the training data (without the penalty).
     pub training_log_loss: f64,
-    /// L-BFGS rounds used.
-    pub rounds: u32,
+    /// Newton steps taken after L-BFGS (0 when L-BFGS alone met the tolerance).
+    pub newton_steps: u32,
 }
 
 /// A fitted multinomial logistic regression.
@@ -125,32 +126,35 @@ fn objective(
     intercepts: &[f64],
     l2: f64,
 ) -> (f64, f64, f64) {
-    let (k, d) = (weights.len(), set.space().dimension());
-    let n = set.len() as f64;
-    let mut gw = vec![vec![0.0; d]; k];
-    let mut gb = vec![0.0; k];
-    let mut loss = 0.0;
-    for (z, &y) in set.features().iter().zip(class_of) {
-        let p = softmax(weights, intercepts, z);
-        loss -= p[y].max(f64::MIN_POSITIVE).ln();
-        for c in 0..k {
-            let r = p[c] - if c == y { 1.0 } else { 0.0 };
-            gb[c] += r;
-            for (g, x) in gw[c].iter_mut().zip(z) {
-                *g += r * x;
-            }
-        }
+    let theta = pack(weights, intercepts);
+    let d = set.space().dimension();
+    let pr = Problem {
+        x: set.features(),
+        y: class_of,
+        k: weights.len(),
+        d,
+        l2,
+    };
+    let e = evaluate(&pr, &theta, false);
+    let gmax = e.gradient.iter().fold(0.0f64, |a, v| a.max(v.abs()));
+    (e.objective, e.log_loss, gmax)
+}
+
+/// Parameters class by class: (w₁ … w_d, b).
+fn pack(weights: &[Vec<f64>], intercepts: &[f64]) -> Vec<f64> {
+    let mut t = Vec::new();
+    for (w, b) in weights.iter().zip(intercepts) {
+        t.extend_from_slice(w);
+        t.push(*b);
     }
-    let mut penalty = 0.0;
-    let mut gmax: f64 = 0.0;
-    for c in 0..k {
-        for j in 0..d {
-            penalty += weights[c][j] * weights[c][j];
-            gmax = gmax.max(((gw[c][j] + l2 * weights[c][j]) / n).abs());
-        }
-        gmax = gmax.max((gb[c] / n).abs());
-    }
-    ((loss + 0.5 * l2 * penalty) / n, loss / n, gmax)
+    t
+}
+
+fn unpack(theta: &[f64], k: usize, d: usize) -> (Vec<Vec<f64>>, Vec<f64>) {
+    let q = d + 1;
+    let weights = (0..k).map(|c| theta[c * q..c * q + d].to_vec()).collect();
+    let intercepts = (0..k).map(|c| theta[c * q + d]).collect();
+    (weights, intercepts)
 }
 
 /// True when doubling every coefficient does not raise the unpenalised objective: at a finite
@@ -174,9 +178,10 @@ fn diverges(
 
 /// Fit a multinomial logistic regression to a training set.
 ///
-/// linfa-logistic's L-BFGS runs up to `max_iterations`; if our gradient check fails, it
-/// restarts from the solution reached, up to `rounds` times. A fit that still misses the
-/// tolerance is refused. An unpenalised fit (`l2` = 0) whose objective does not rise when its
+/// linfa-logistic's L-BFGS runs up to `max_iterations`. If our gradient check on its solution
+/// fails (linfa can stop short on well-separated classes; see the `newton` module source),
+/// up to `newton_steps` damped Newton steps on the exact objective finish the fit. A fit that
+/// still misses the tolerance is refused. An unpenalised fit (`l2` = 0) whose objective does not rise when its
 /// coefficients are doubled is refused too: the classes are separable and the maximum
 /// likelihood estimate does not exist.
 ///
@@ -222,66 +227,64 @@ pub fn fit(set: &TrainingSet, options: &FitOptions) -> Result<LogisticFit> {
         )
     })?;
     let data = Dataset::new(x, Array1::from(class_of.clone()));
-    let mut init = Array2::<f64>::zeros((d + 1, classes.len()));
-    let mut last = None;
-    for round in 1..=options.rounds {
-        let params = MultiLogisticRegression::default()
-            .alpha(options.l2)
-            .max_iterations(options.max_iterations)
-            // linfa stops on the L2 norm of the summed gradient; n·tol makes that at least as
-            // strict as our check on the mean gradient's largest component.
-            .gradient_tolerance(options.tolerance * n as f64)
-            .initial_params(init.clone());
-        let fitted = params
-            .fit(&data)
-            .map_err(|e| refuse(format!("the solver failed ({e})"), "finite features"))?;
-        let (w, b) = (fitted.params(), fitted.intercept());
-        let weights: Vec<Vec<f64>> = (0..classes.len())
-            .map(|c| (0..d).map(|j| w[[j, c]]).collect())
-            .collect();
-        let intercepts: Vec<f64> = b.to_vec();
-        let (obj, ll, gmax) = objective(set, &class_of, &weights, &intercepts, options.l2);
-        let convergence = Convergence {
+    let params = MultiLogisticRegression::default()
+        .alpha(options.l2)
+        .max_iterations(options.max_iterations)
+        // linfa stops on the L2 norm of the summed gradient; n·tol makes that at least as
+        // strict as our check on the mean gradient's largest component.
+        .gradient_tolerance(options.tolerance * n as f64);
+    let fitted = params
+        .fit(&data)
+        .map_err(|e| refuse(format!("the solver failed ({e})"), "finite features"))?;
+    let (w, b) = (fitted.params(), fitted.intercept());
+    let k = classes.len();
+    let weights: Vec<Vec<f64>> = (0..k)
+        .map(|c| (0..d).map(|j| w[[j, c]]).collect())
+        .collect();
+    let mut theta = pack(&weights, &b.to_vec());
+    let mut steps = 0;
+    let (_, _, g0) = objective(set, &class_of, &weights, &b.to_vec(), options.l2);
+    if g0 > options.tolerance {
+        let pr = Problem {
+            x: set.features(),
+            y: &class_of,
+            k,
+            d,
+            l2: options.l2,
+        };
+        steps = polish(&pr, &mut theta, options.tolerance, options.newton_steps);
+    }
+    let (weights, intercepts) = unpack(&theta, k, d);
+    let (obj, ll, gmax) = objective(set, &class_of, &weights, &intercepts, options.l2);
+    if gmax > options.tolerance {
+        return Err(refuse(
+            format!(
+                "the fit did not converge in {} L-BFGS iterations and {steps} Newton steps (largest gradient component {gmax:.3e})",
+                options.max_iterations
+            ),
+            &format!(
+                "a gradient of at most {:.1e}; with --l2 0 the classes may be separable: give a positive --l2",
+                options.tolerance
+            ),
+        ));
+    }
+    if options.l2 == 0.0 && diverges(set, &class_of, &weights, &intercepts, obj) {
+        return Err(refuse(
+            "the unpenalised optimum lies at infinity: the classes are separable in these features, so the log-loss keeps falling as the coefficients grow".into(),
+            "a positive --l2 (or more overlapping training data)",
+        ));
+    }
+    Ok(LogisticFit {
+        classes,
+        weights,
+        intercepts,
+        l2: options.l2,
+        convergence: Convergence {
             gradient_max: gmax,
             tolerance: options.tolerance,
             objective: obj,
             training_log_loss: ll,
-            rounds: round,
-        };
-        if gmax <= options.tolerance {
-            if options.l2 == 0.0 && diverges(set, &class_of, &weights, &intercepts, obj) {
-                return Err(refuse(
-                    "the unpenalised optimum lies at infinity: the classes are separable in these features, so the log-loss keeps falling as the coefficients grow".into(),
-                    "a positive --l2 (or more overlapping training data)",
-                ));
-            }
-            return Ok(LogisticFit {
-                classes,
-                weights,
-                intercepts,
-                l2: options.l2,
-                convergence,
-            });
-        }
-        for j in 0..d {
-            for c in 0..classes.len() {
-                init[[j, c]] = weights[c][j];
-            }
-        }
-        for c in 0..classes.len() {
-            init[[d, c]] = intercepts[c];
-        }
-        last = Some(convergence);
-    }
-    let c = last.map_or(f64::NAN, |c| c.gradient_max);
-    Err(refuse(
-        format!(
-            "the fit did not converge in {} rounds of {} L-BFGS iterations (largest gradient component {c:.3e})",
-            options.rounds, options.max_iterations
-        ),
-        &format!(
-            "a gradient of at most {:.1e}; with --l2 0 the classes may be separable: give a positive --l2",
-            options.tolerance
-        ),
-    ))
+            newton_steps: steps,
+        },
+    })
 }

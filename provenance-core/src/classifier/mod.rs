@@ -13,6 +13,7 @@
 //! - [`cross_validate`]: stratified k-fold accuracy, log-loss, confusion matrix.
 //! - [`Model`]: the saved model (JSON), with its features, classes, penalty, training size,
 //!   data checksum and date.
+//! - [`default_model`]: a field set's default model, a smooth version of its fields.
 //!
 //! A classifier's probabilities describe its training data. They support, and do not replace,
 //! petrographic judgement.
@@ -41,7 +42,9 @@
 mod cv;
 mod features;
 mod fit;
+mod from_fields;
 mod model;
+mod newton;
 #[cfg(test)]
 mod tests;
 mod training;
@@ -49,5 +52,9 @@ mod training;
 pub use cv::{cross_validate, CrossValidation, DEFAULT_FOLDS, LOG_LOSS_FLOOR};
 pub use features::{FeatureProblem, FeatureSpace, FRAMEWORK_PARTS};
 pub use fit::{fit, Convergence, FitOptions, LogisticFit, DEFAULT_L2, DEFAULT_TOLERANCE};
+pub use from_fields::{
+    default_model, default_training_set, COMPOSITIONS_PER_FIELD, DEFAULT_MODEL_NOTE,
+    DEFAULT_MODEL_SEED, POINTS_PER_COMPOSITION,
+};
 pub use model::{utc_date, Features, Model, Training, MODEL_FORMAT, MODEL_NOTE, MODEL_VERSION};
 pub use training::TrainingSet;

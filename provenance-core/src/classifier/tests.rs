@@ -102,7 +102,7 @@ fn unpenalised_fit_of_separable_classes_is_refused_not_returned() {
     let opts = FitOptions {
         l2: 0.0,
         max_iterations: 50,
-        rounds: 2,
+        newton_steps: 20,
         ..Default::default()
     };
     let e = fit(&t, &opts).unwrap_err();
@@ -242,12 +242,12 @@ fn a_labelled_table_names_bad_rows() {
 fn running_out_of_iterations_is_refused() {
     let opts = FitOptions {
         max_iterations: 1,
-        rounds: 1,
+        newton_steps: 0,
         ..Default::default()
     };
     let e = fit(&three_classes(), &opts).unwrap_err().to_string();
     assert!(
-        e.contains("did not converge in 1 rounds of 1 L-BFGS iterations"),
+        e.contains("did not converge in 1 L-BFGS iterations and 0 Newton steps"),
         "{e}"
     );
 }

@@ -45,6 +45,7 @@
 //! ```
 
 mod estimate;
+mod fields;
 mod integrate;
 mod posterior;
 mod region;
