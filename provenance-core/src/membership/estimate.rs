@@ -203,15 +203,17 @@ impl Membership {
 /// use provenance_core::membership::{Estimator, MembershipOptions, Posterior};
 /// let left = Polygon::new(vec![[100.0, 0.0, 0.0], [0.0, 100.0, 0.0], [0.0, 50.0, 50.0]]);
 /// let set: [(&str, &Polygon); 1] = [("B side", &left)];
-/// let est = Estimator::new(&set[..], MembershipOptions { draws: 2000, ..Default::default() }).unwrap();
-/// // On the region's edge b = c, with 3 points on B and C: too few to integrate, so sampled.
+/// let opts = MembershipOptions { draws: 2000, integrate: false, ..Default::default() };
+/// let est = Estimator::new(&set[..], opts).unwrap();
+/// // On the region's edge b = c, so not bounded; integration is off, so sampled.
 /// let posts = vec![Posterior::jeffreys([30.0, 3.0, 3.0]).unwrap(); 3];
 /// let ms = est.estimate_many(&posts, 0, 0);
 /// assert_eq!(ms.len(), 3);
 /// assert_ne!(ms[0], ms[1]); // different positions, different streams
 /// assert_eq!(est.estimate_many(&posts, 0, 0), ms); // same seed, same result
-/// // With 5 or more points on every pole the same sample is integrated: no randomness.
-/// let m = est.estimate(&Posterior::jeffreys([30.0, 36.0, 34.0]).unwrap(), 0, 0);
+/// // By default whole counts are integrated: no randomness.
+/// let est = Estimator::new(&set[..], MembershipOptions::default()).unwrap();
+/// let m = est.estimate(&posts[0], 0, 0);
 /// assert_eq!(m.method(), provenance_core::membership::Method::Integrated);
 /// ```
 #[derive(Debug, Clone)]
@@ -256,8 +258,9 @@ impl Estimator {
         self.sample(posterior, position, lane)
     }
 
-    /// Deterministic integration of the posterior over every region, when every pole has at
-    /// least [`super::INTEGRATE_MIN_COUNT`] points; `None` otherwise. Stick-breaking makes the
+    /// Deterministic integration of the posterior over every region, for whole counts (and
+    /// for fractional counts of at least [`super::INTEGRATE_MIN_COUNT`] points on every pole);
+    /// `None` otherwise. Stick-breaking makes the
     /// A pole and c/(b + c) independent Beta variables, so each region's mass is a
     /// one-dimensional Gauss-Legendre integral over a of differences of a Beta distribution
     /// function (details in the module source; accuracy [`INTEGRATION_ACCURACY`] in tests).
@@ -487,6 +490,7 @@ mod tests {
         let opts = MembershipOptions {
             draws: 2000,
             seed: 42,
+            integrate: false,
             ..Default::default()
         };
         let est = Estimator::new(&set[..], opts).unwrap();
