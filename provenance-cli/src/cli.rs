@@ -19,6 +19,9 @@ pub enum Command {
     Modes(ModesArgs),
     /// Points to count for a target precision (Van der Plas & Tobi 1965).
     Plan(PlanArgs),
+    /// Fit a provenance classifier (multinomial logistic regression on ilr coordinates) to
+    /// labelled reference samples, cross-validate it and save it.
+    Train(TrainArgs),
     /// Sandstone names under Folk (1980), Garzanti (2019) and Pettijohn, Potter & Siever (1987).
     ///
     /// A name is blank (null in JSON) when a scheme cannot apply, with the reason in its rule
@@ -90,6 +93,28 @@ pub struct PlanArgs {
     /// default: a table from 5 to 50.
     #[arg(long = "proportion", value_name = "P")]
     pub proportions: Vec<f64>,
+}
+
+/// `sandprov train`.
+#[derive(Debug, Args)]
+pub struct TrainArgs {
+    #[command(flatten)]
+    pub input: InputArgs,
+    /// The metadata column holding each sample's class (for example its known setting).
+    #[arg(long, value_name = "COLUMN")]
+    pub label: String,
+    /// The composition to classify: a diagram, or `framework` (Qm, Qp+C, P, K, Lv, Ls, Lm).
+    #[arg(long, value_name = "COMPOSITION", value_parser = ["qfl", "qmflt", "qmpk", "qplvlsm", "lmlvls", "framework"])]
+    pub diagram: String,
+    /// L2 penalty α (scikit-learn's 1/C); 0 for unpenalised maximum likelihood.
+    #[arg(long, value_name = "ALPHA", allow_negative_numbers = true, default_value_t = provenance_core::classifier::DEFAULT_L2)]
+    pub l2: f64,
+    /// Folds of the stratified cross-validation (at least 2; 0 skips it).
+    #[arg(long, value_name = "K", default_value_t = provenance_core::classifier::DEFAULT_FOLDS)]
+    pub folds: usize,
+    /// The model file to write (JSON, written whole or not at all).
+    #[arg(short = 'o', long = "output", value_name = "MODEL.json")]
+    pub output: PathBuf,
 }
 
 /// `sandprov name`.
@@ -183,6 +208,20 @@ pub struct SettingArgs {
     /// field-set file. Default: every embedded set.
     #[arg(long = "fields", value_name = "ID|FILE")]
     pub fields: Vec<String>,
+    /// Posterior draws per sample and diagram where membership is sampled (10000 keeps the
+    /// Monte Carlo standard error at or below 0.005).
+    #[arg(long, value_name = "N", default_value_t = provenance_core::membership::DEFAULT_DRAWS)]
+    pub draws: u32,
+    /// Seed of the sampled memberships; the same seed gives the same output.
+    #[arg(long, value_name = "S", default_value_t = provenance_core::membership::DEFAULT_SEED)]
+    pub seed: u64,
+    /// Add a classifier's probabilities: a model file from `sandprov train`, or the id of an
+    /// embedded field set for its default model (a smooth version of those fields).
+    #[arg(long, value_name = "MODEL.json|ID")]
+    pub model: Option<String>,
+    /// Leave out membership, the group summary and the classifier (field look-up only).
+    #[arg(long, conflicts_with = "model")]
+    pub no_membership: bool,
 }
 
 /// `sandprov plot`.

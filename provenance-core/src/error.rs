@@ -203,6 +203,16 @@ pub enum Error {
         /// What would have been accepted.
         expected: String,
     },
+    /// A classifier cannot be trained or applied as asked.
+    #[error("{file}: {message}, expected {expected}")]
+    Training {
+        /// The labelled table or model file.
+        file: String,
+        /// What is wrong.
+        message: String,
+        /// What would have worked.
+        expected: String,
+    },
     /// An output path equals an input path.
     #[error("output {path} is also an input, expected a different output path (inputs are never overwritten)")]
     OutputIsInput {

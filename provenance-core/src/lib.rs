@@ -40,6 +40,7 @@
 #![deny(missing_docs)]
 
 pub mod batch;
+pub mod classifier;
 pub mod composition;
 pub mod counts;
 pub mod demo;
@@ -49,6 +50,7 @@ pub mod fields;
 pub mod geometry;
 pub mod input;
 pub mod logratio;
+pub mod membership;
 pub mod modes;
 pub mod naming;
 pub mod output;

@@ -80,7 +80,9 @@ fn report_refuses_an_unknown_column_and_a_foreign_folder() {
         .args(["report", "c.csv", "-o", "out", "--by", "formation"])
         .assert()
         .code(2)
-        .stderr(predicate::str::contains("metadata column named \"formation\""));
+        .stderr(predicate::str::contains(
+            "metadata column named \"formation\"",
+        ));
     assert!(!sb.path("out").exists());
     std::fs::create_dir(sb.path("mine")).unwrap();
     sb.write("mine/notes.txt", "keep me");

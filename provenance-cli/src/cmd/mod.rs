@@ -10,6 +10,7 @@ mod plot;
 mod report;
 mod section;
 mod setting;
+mod train;
 
 use crate::cli::{Cli, Command, InputArgs};
 use provenance_core::error::Result;
@@ -23,6 +24,7 @@ pub fn run(cli: Cli) -> Result<()> {
         Command::Name(a) => name::run(a),
         Command::Report(a) => report::run(a),
         Command::Demo(a) => demo::run(a),
+        Command::Train(a) => train::run(a),
         Command::Fields(c) => fields::run(c),
         Command::Setting(a) => setting::run(a),
         Command::Plot(a) => plot::run(a),

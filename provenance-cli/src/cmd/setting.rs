@@ -1,14 +1,32 @@
 //! `sandprov setting`.
 
 use crate::cli::SettingArgs;
+use provenance_core::classifier::{default_model, Model};
 use provenance_core::error::{Error, Result};
-use provenance_core::fields::FieldSet;
+use provenance_core::fields::{embedded, FieldSet};
+use provenance_core::membership::MembershipOptions;
 use provenance_core::output::Sink;
-use provenance_core::setting::{write_setting, Locator};
+use provenance_core::setting::{write_setting, Locator, NamedModel};
 use std::path::Path;
 
+/// A model file, or the default model of an embedded field set.
+fn model(spec: &str) -> Result<NamedModel> {
+    let path = Path::new(spec);
+    if !path.exists() && embedded::ids().contains(&spec) {
+        let set = FieldSet::load(spec)?;
+        return Ok(NamedModel {
+            name: format!("default model of {spec}"),
+            model: default_model(&set, &super::train::today())?,
+        });
+    }
+    Ok(NamedModel {
+        name: spec.to_string(),
+        model: Model::load(path)?,
+    })
+}
+
 pub fn run(a: SettingArgs) -> Result<()> {
-    let locator = if a.fields.is_empty() {
+    let mut locator = if a.fields.is_empty() {
         Locator::embedded()?
     } else {
         Locator::new(
@@ -18,6 +36,15 @@ pub fn run(a: SettingArgs) -> Result<()> {
                 .collect::<Result<Vec<_>>>()?,
         )?
     };
+    if !a.no_membership {
+        let options = MembershipOptions {
+            draws: a.draws,
+            seed: a.seed,
+            ..MembershipOptions::default()
+        };
+        let classifier = a.model.as_deref().map(model).transpose()?;
+        locator = locator.with_membership(options, classifier)?;
+    }
     let format = a
         .output
         .format
@@ -25,6 +52,7 @@ pub fn run(a: SettingArgs) -> Result<()> {
         .map_err(|message| Error::Usage { message })?;
     let mut inputs = super::input_paths(&a.input);
     inputs.extend(a.fields.iter().map(Path::new).filter(|p| p.exists()));
+    inputs.extend(a.model.iter().map(Path::new).filter(|p| p.exists()));
     let mut sink = Sink::open(a.output.output.as_deref(), &inputs)?;
     let reader = super::open_counts(&a.input)?;
     let name = sink.name();

@@ -3,11 +3,13 @@
 pub mod atomic;
 pub mod changes_table;
 pub mod groups_table;
+pub mod membership;
 pub mod modes_table;
 pub mod names_table;
 pub mod number;
 
 pub use atomic::{check_not_input, AtomicFile, Sink};
+pub use membership::{column_slug, MembershipColumns, MembershipJson};
 pub use modes_table::{ModesJson, ModesTable};
 pub use names_table::{NamesJson, NamesTable};
 

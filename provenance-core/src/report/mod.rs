@@ -55,18 +55,20 @@ impl Computed<'_> {
     }
 }
 
-/// The field sets a report uses: the named ones, or every embedded set.
+/// The field sets a report uses: the named ones, or every embedded set; membership under
+/// counting error is always computed, with the default options.
 fn locator(specs: &[String]) -> Result<Locator> {
-    if specs.is_empty() {
-        Locator::embedded()
+    let l = if specs.is_empty() {
+        Locator::embedded()?
     } else {
         Locator::new(
             specs
                 .iter()
                 .map(|s| FieldSet::load(s))
                 .collect::<Result<_>>()?,
-        )
-    }
+        )?
+    };
+    l.with_membership(crate::membership::MembershipOptions::default(), None)
 }
 
 /// Build the report's files: `report.html`, `modes.csv`, `names.csv`, `setting.csv`,

@@ -236,11 +236,17 @@ fn provenance(c: &Computed) -> String {
                 r.push(n.name().map_or(Cell::Empty, |x| Cell::Text(x.to_string())));
             }
             for (i, d) in st.diagrams.iter().enumerate() {
-                r.push(
-                    c.locator
-                        .field_name(i, d)
-                        .map_or(Cell::Empty, |x| Cell::Text(x.to_string())),
-                );
+                // The field the mode falls in, with the probability that the true composition
+                // lies there given the counts (membership under counting error).
+                let p = st.likelihood.as_ref().and_then(|l| {
+                    let f = d.placement?.field()?;
+                    Some(l.diagrams.get(i)?.membership.as_ref()?.probability(f))
+                });
+                r.push(match (c.locator.field_name(i, d), p) {
+                    (Some(x), Some(p)) => Cell::Text(format!("{x} (p = {p:.2})")),
+                    (Some(x), None) => Cell::Text(x.to_string()),
+                    _ => Cell::Empty,
+                });
             }
             let field = qfl.and_then(|i| {
                 let f = st.diagrams[i].placement?.field()?;
@@ -261,7 +267,9 @@ fn provenance(c: &Computed) -> String {
     format!(
         "<h2 id=\"provenance\">Names and provenance</h2>\n<p class=\"muted\">Names by the published \
          rules (the rule behind each name is in names.csv and results.json); the provenance field \
-         each recalculated mode falls in; and what such sand typically means for its source and \
+         each recalculated mode falls in, with p, the probability that the true composition lies \
+         in that field given the counts (Dirichlet posterior, Jeffreys prior; all fields and \
+         confidence regions in setting.csv and results.json); and what such sand typically means for its source and \
          receiving basin (after Dickinson &amp; Suczek 1979 and Dickinson 1985). A reading to \
          weigh against the thin sections, not a verdict.</p>\n{}",
         table(&h, &rows)

@@ -20,6 +20,7 @@
 //! # Ok::<(), provenance_core::error::Error>(())
 //! ```
 
+pub mod likelihood;
 pub mod table;
 
 use crate::counts::Sample;
@@ -31,6 +32,9 @@ use crate::modes::DiagramMode;
 use crate::output::Format;
 use std::io::Write;
 
+pub use likelihood::{
+    ClassifierResult, DiagramLikelihood, Likelihoods, NamedModel, SampleLikelihood,
+};
 pub use table::{SettingJson, SettingTable};
 
 /// One sample on one diagram.
@@ -63,6 +67,8 @@ pub struct DiagramSetting {
 pub struct SampleSetting {
     /// One entry per field set of the locator.
     pub diagrams: Vec<DiagramSetting>,
+    /// Membership, group summary and classifier, when the locator has [`Likelihoods`].
+    pub likelihood: Option<SampleLikelihood>,
 }
 
 /// Looks samples up in one field set per diagram.
@@ -78,6 +84,7 @@ pub struct SampleSetting {
 #[derive(Debug, Clone)]
 pub struct Locator {
     sets: Vec<FieldSet>,
+    likelihoods: Option<Likelihoods>,
 }
 
 impl Locator {
@@ -106,7 +113,39 @@ impl Locator {
                 });
             }
         }
-        Ok(Locator { sets })
+        Ok(Locator {
+            sets,
+            likelihoods: None,
+        })
+    }
+
+    /// The same locator, also computing likelihoods (membership under counting error, the
+    /// group summary and an optional classifier) for every sample.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::counts::{Framework, Sample};
+    /// use provenance_core::membership::MembershipOptions;
+    /// use provenance_core::setting::Locator;
+    /// let l = Locator::embedded()?.with_membership(MembershipOptions::default(), None)?;
+    /// let f = Framework { qm: 388.0, qp: 4.0, c: 2.0, p: 3.0, k: 1.0, ls: 1.0, lm: 1.0, ..Default::default() };
+    /// let s = l.locate(&Sample::counted("a", f));
+    /// let m = s.likelihood.unwrap().diagrams[0].membership.clone().unwrap();
+    /// assert!(m.probability(0) > 0.95); // craton interior
+    /// # Ok::<(), provenance_core::error::Error>(())
+    /// ```
+    pub fn with_membership(
+        mut self,
+        options: crate::membership::MembershipOptions,
+        classifier: Option<NamedModel>,
+    ) -> Result<Locator> {
+        self.likelihoods = Some(Likelihoods::new(&self.sets, options, classifier)?);
+        Ok(self)
+    }
+
+    /// The likelihood settings, when present.
+    pub fn likelihoods(&self) -> Option<&Likelihoods> {
+        self.likelihoods.as_ref()
     }
 
     /// Every embedded set (one per diagram that has one), checked.
@@ -149,16 +188,22 @@ impl Locator {
     /// assert!(s.diagrams[2].placement.is_none()); // QmPK: no Qm, P or K
     /// ```
     pub fn locate(&self, sample: &Sample) -> SampleSetting {
+        let diagrams: Vec<DiagramSetting> = self
+            .sets
+            .iter()
+            .map(|set| {
+                let mode = DiagramMode::of(sample, set.diagram);
+                let placement = mode.map(|m| set.locate(m.percent.parts()));
+                DiagramSetting { mode, placement }
+            })
+            .collect();
+        let likelihood = self.likelihoods.as_ref().map(|l| {
+            let modes: Vec<Option<DiagramMode>> = diagrams.iter().map(|d| d.mode).collect();
+            l.assess(&self.sets, sample, &modes)
+        });
         SampleSetting {
-            diagrams: self
-                .sets
-                .iter()
-                .map(|set| {
-                    let mode = DiagramMode::of(sample, set.diagram);
-                    let placement = mode.map(|m| set.locate(m.percent.parts()));
-                    DiagramSetting { mode, placement }
-                })
-                .collect(),
+            diagrams,
+            likelihood,
         }
     }
 

@@ -12,7 +12,11 @@
 //! `{d}_boundary_distance`, `{d}_nearest_field`, `{d}_provenance`, `{d}_receiving_basins`
 //! (`; `-separated), `{d}_reason`, and last `caution`.
 //!
-//! Later per-diagram keys (for example membership probabilities) go in
+//! With [`super::Likelihoods`] on the locator, each diagram's block and object also carry
+//! membership, and each sample the provenance summary and classifier (see
+//! [`super::likelihood`]).
+//!
+//! Later per-diagram keys go in
 //! [`SettingTable::diagram_columns`] / [`SettingTable::push_diagram`] and in
 //! `DiagramJson::serialize`, after the keys above.
 
@@ -112,8 +116,15 @@ impl SettingTable<'_> {
     pub fn header(&self) -> Vec<String> {
         let mut h = vec!["sample".to_string()];
         h.extend(self.metadata.iter().cloned());
+        let likelihoods = self.locator.likelihoods();
         for set in self.locator.sets() {
             h.extend(self.diagram_columns(set));
+            if let Some(l) = likelihoods {
+                h.extend(l.diagram_columns(set));
+            }
+        }
+        if let Some(l) = likelihoods {
+            h.extend(l.sample_columns(self.locator.sets()));
         }
         h.push("caution".into());
         h
@@ -209,8 +220,21 @@ impl SettingTable<'_> {
             buf.push(b',');
             push_csv_cell(buf, v);
         }
-        for (set, d) in self.locator.sets().iter().zip(&setting.diagrams) {
+        let likely = self.locator.likelihoods().zip(setting.likelihood.as_ref());
+        for (i, (set, d)) in self
+            .locator
+            .sets()
+            .iter()
+            .zip(&setting.diagrams)
+            .enumerate()
+        {
             self.push_diagram(buf, set, d);
+            if let Some((l, sl)) = likely {
+                l.push_diagram(buf, set, &sl.diagrams[i]);
+            }
+        }
+        if let Some((l, sl)) = likely {
+            l.push_sample(buf, self.locator.sets(), sl);
         }
         buf.push(b',');
         push_csv_cell(buf, CAUTION);
@@ -218,7 +242,11 @@ impl SettingTable<'_> {
     }
 }
 
-struct DiagramJson<'a>(&'a FieldSet, &'a DiagramSetting);
+struct DiagramJson<'a>(
+    &'a FieldSet,
+    &'a DiagramSetting,
+    Option<(&'a super::Likelihoods, &'a super::DiagramLikelihood)>,
+);
 
 impl Serialize for DiagramJson<'_> {
     fn serialize<S: Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
@@ -266,6 +294,9 @@ impl Serialize for DiagramJson<'_> {
             "composition",
             &d.mode.map(|md| Comp(set, md.percent.parts())),
         )?;
+        if let Some((l, dl)) = self.2 {
+            l.write_diagram_entries(&mut m, set, dl)?;
+        }
         m.end()
     }
 }
@@ -301,8 +332,22 @@ impl Serialize for SettingJson<'_> {
         let mut map = s.serialize_map(None)?;
         map.serialize_entry("sample", &self.sample.id)?;
         map.serialize_entry("line", &self.sample.line)?;
-        for (set, d) in self.locator.sets().iter().zip(&self.setting.diagrams) {
-            map.serialize_entry(set.diagram.id(), &DiagramJson(set, d))?;
+        let likely = self
+            .locator
+            .likelihoods()
+            .zip(self.setting.likelihood.as_ref());
+        for (i, (set, d)) in self
+            .locator
+            .sets()
+            .iter()
+            .zip(&self.setting.diagrams)
+            .enumerate()
+        {
+            let extra = likely.map(|(l, sl)| (l, &sl.diagrams[i]));
+            map.serialize_entry(set.diagram.id(), &DiagramJson(set, d, extra))?;
+        }
+        if let Some((l, sl)) = likely {
+            l.write_sample_entries(&mut map, sl)?;
         }
         map.serialize_entry("caution", CAUTION)?;
         struct Meta<'a>(&'a [String], &'a [String]);

@@ -1,0 +1,364 @@
+//! A saved classifier: what it reads, what it learned and where it came from, as JSON.
+
+use super::cv::CrossValidation;
+use super::features::{FeatureProblem, FeatureSpace};
+use super::fit::{softmax, Convergence, LogisticFit};
+use super::training::TrainingSet;
+use crate::counts::Sample;
+use crate::error::{Error, Location, Result};
+use serde::{Deserialize, Serialize};
+use std::path::Path;
+
+/// The `format` value of every model file.
+pub const MODEL_FORMAT: &str = "sandprov-model";
+/// The model file version this build reads and writes.
+pub const MODEL_VERSION: u32 = 1;
+
+/// Where the training data came from.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Training {
+    /// Number of training samples.
+    pub samples: usize,
+    /// Samples per class, in class order.
+    pub per_class: Vec<(String, usize)>,
+    /// Checksum of the training data (see [`TrainingSet::checksum`]).
+    pub checksum: String,
+    /// Date of the fit, `YYYY-MM-DD` (UTC).
+    pub date: String,
+    /// The data's origin in words: a file and label column, or how it was generated.
+    pub source: String,
+}
+
+/// The features a model reads.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Features {
+    /// The composition: a diagram id or `framework`.
+    pub composition: FeatureSpace,
+    /// Its parts, in order.
+    pub parts: Vec<String>,
+    /// Feature names (`ilr1`, …).
+    pub names: Vec<String>,
+    /// How the features are made, in words.
+    pub transform: String,
+}
+
+/// A multinomial logistic classifier on ilr coordinates, as saved and loaded.
+///
+/// # Example
+/// ```
+/// use provenance_core::classifier::{fit, FeatureSpace, FitOptions, Model, TrainingSet};
+/// use provenance_core::counts::{Counting, Framework, Sample};
+/// use provenance_core::diagram::Diagram;
+/// let mut t = TrainingSet::new(FeatureSpace::Diagram(Diagram::Qfl));
+/// for (q, f, l, label) in [(80.0, 10.0, 10.0, "q"), (70.0, 20.0, 10.0, "q"), (30.0, 40.0, 30.0, "f"), (20.0, 50.0, 30.0, "f"), (60.0, 30.0, 10.0, "f"), (40.0, 20.0, 40.0, "q")] {
+///     t.push_amounts(label, &[q, f, l], Counting::Counted).unwrap();
+/// }
+/// let model = Model::new(fit(&t, &FitOptions::default()).unwrap(), &t, "2025-01-01", "six invented sands", None);
+/// let text = model.to_json();
+/// let back = Model::from_json("m.json", &text).unwrap();
+/// assert_eq!(back, model);
+/// let s = Sample::counted("x", Framework { qm: 300.0, p: 20.0, lv: 30.0, ..Default::default() });
+/// let p = back.probabilities(&s).unwrap();
+/// assert!(p[1] > p[0]); // quartz-rich: class "q"
+/// assert!((p.iter().sum::<f64>() - 1.0).abs() < 1e-12);
+/// ```
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Model {
+    /// Always [`MODEL_FORMAT`].
+    pub format: String,
+    /// Always [`MODEL_VERSION`].
+    pub version: u32,
+    /// The kind of model, in words.
+    pub kind: String,
+    /// What the model reads.
+    pub features: Features,
+    /// Class labels, sorted.
+    pub classes: Vec<String>,
+    /// The L2 penalty α (scikit-learn's 1/C).
+    pub l2: f64,
+    /// Coefficients, one row per class, one column per feature.
+    pub weights: Vec<Vec<f64>>,
+    /// Intercepts, one per class.
+    pub intercepts: Vec<f64>,
+    /// The training data.
+    pub training: Training,
+    /// The convergence check of the fit.
+    pub convergence: Convergence,
+    /// Cross-validated performance, when run.
+    pub cross_validation: Option<CrossValidation>,
+    /// A caution for whoever uses the model.
+    pub note: String,
+}
+
+/// What every model says about itself.
+pub const MODEL_NOTE: &str = "Probabilities of the classes this model was trained on, from the \
+composition alone. They are only as good as the training data, say nothing about settings \
+absent from it, and support rather than replace petrographic judgement.";
+
+fn transform_text() -> String {
+    "ilr, Helmert-type basis (Egozcue et al. 2003); zeros replaced multiplicatively with \
+     delta = 0.65/n, n the points in the composition (Martin-Fernandez et al. 2003)"
+        .to_string()
+}
+
+impl Model {
+    /// A model from a fit of `set`, dated `date` (`YYYY-MM-DD`), with its data's `source`.
+    pub fn new(
+        fit: LogisticFit,
+        set: &TrainingSet,
+        date: &str,
+        source: &str,
+        cross_validation: Option<CrossValidation>,
+    ) -> Model {
+        let space = set.space();
+        Model {
+            format: MODEL_FORMAT.into(),
+            version: MODEL_VERSION,
+            kind: "multinomial logistic regression".into(),
+            features: Features {
+                composition: space,
+                parts: space.parts().iter().map(|p| p.to_string()).collect(),
+                names: space.feature_names(),
+                transform: transform_text(),
+            },
+            classes: fit.classes,
+            l2: fit.l2,
+            weights: fit.weights,
+            intercepts: fit.intercepts,
+            training: Training {
+                samples: set.len(),
+                per_class: set.class_counts(),
+                checksum: set.checksum(),
+                date: date.into(),
+                source: source.into(),
+            },
+            convergence: fit.convergence,
+            cross_validation,
+            note: MODEL_NOTE.into(),
+        }
+    }
+
+    /// A plain-text summary: data, penalty, convergence and cross-validation.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::classifier::{fit, FeatureSpace, FitOptions, Model, TrainingSet};
+    /// use provenance_core::counts::Counting;
+    /// use provenance_core::diagram::Diagram;
+    /// let mut t = TrainingSet::new(FeatureSpace::Diagram(Diagram::Qmpk));
+    /// t.push_amounts("k-rich", &[50.0, 10.0, 40.0], Counting::Counted).unwrap();
+    /// t.push_amounts("p-rich", &[50.0, 40.0, 10.0], Counting::Counted).unwrap();
+    /// let m = Model::new(fit(&t, &FitOptions::default()).unwrap(), &t, "2025-01-01", "two sands", None);
+    /// assert!(m.summary().starts_with("multinomial logistic regression on 2 samples, qmpk (ilr1, ilr2), 2 classes, l2 = 1\n"));
+    /// ```
+    pub fn summary(&self) -> String {
+        let c = &self.convergence;
+        let mut s = format!(
+            "{} on {} samples, {} ({}), {} classes, l2 = {}\n",
+            self.kind,
+            self.training.samples,
+            self.features.composition,
+            self.features.names.join(", "),
+            self.classes.len(),
+            self.l2
+        );
+        s += &format!("data checksum {}\n", self.training.checksum);
+        s += &format!(
+            "converged: largest gradient component {:.2e} (tolerance {:.0e}), training log-loss {:.4}\n",
+            c.gradient_max, c.tolerance, c.training_log_loss
+        );
+        match &self.cross_validation {
+            Some(cv) => s += &cv.to_string(),
+            None => s += "cross-validation skipped\n",
+        }
+        s
+    }
+
+    /// Class probabilities for a feature vector, in class order.
+    pub fn probabilities_of_features(&self, z: &[f64]) -> Vec<f64> {
+        softmax(&self.weights, &self.intercepts, z)
+    }
+
+    /// Class probabilities for a sample, in class order.
+    pub fn probabilities(&self, sample: &Sample) -> std::result::Result<Vec<f64>, FeatureProblem> {
+        let z = self.features.composition.features(sample)?;
+        Ok(self.probabilities_of_features(&z))
+    }
+
+    /// The model as pretty-printed JSON.
+    pub fn to_json(&self) -> String {
+        // A struct of strings, numbers and vectors always serializes.
+        serde_json::to_string_pretty(self).unwrap_or_default() + "\n"
+    }
+
+    /// Write the model to `path`, whole or not at all.
+    pub fn save(&self, path: &Path) -> Result<()> {
+        use std::io::Write;
+        let mut f = crate::output::AtomicFile::create(path)?;
+        f.write_all(self.to_json().as_bytes())
+            .map_err(|source| Error::Write {
+                path: path.display().to_string(),
+                source,
+            })?;
+        f.commit()
+    }
+
+    /// Read a model file.
+    pub fn load(path: &Path) -> Result<Model> {
+        let name = path.display().to_string();
+        let text = std::fs::read(path).map_err(|source| Error::Read {
+            path: name.clone(),
+            source,
+        })?;
+        let text = String::from_utf8(text).map_err(|_| Error::NotText {
+            at: Location::new(&name),
+        })?;
+        Model::from_json(&name, &text)
+    }
+
+    /// Parse and check model text; `file` names it in messages.
+    pub fn from_json(file: &str, text: &str) -> Result<Model> {
+        let expected_file = "a sandprov model file (JSON written by `sandprov train`)";
+        let value: serde_json::Value =
+            serde_json::from_str(text).map_err(|e| Error::Malformed {
+                at: Location::new(file).line(e.line() as u64),
+                message: format!("not valid JSON ({e})"),
+                expected: expected_file.into(),
+            })?;
+        let bad = |key: &str, message: String, expected: String| Error::Malformed {
+            at: Location::new(file),
+            message: format!("key {key:?}: {message}"),
+            expected,
+        };
+        match value.get("format").and_then(|v| v.as_str()) {
+            Some(MODEL_FORMAT) => {}
+            other => {
+                return Err(bad(
+                    "format",
+                    format!("found {other:?}"),
+                    format!("{MODEL_FORMAT:?} ({expected_file})"),
+                ))
+            }
+        }
+        match value.get("version").and_then(|v| v.as_u64()) {
+            Some(v) if v == u64::from(MODEL_VERSION) => {}
+            other => {
+                return Err(bad(
+                    "version",
+                    format!("found {other:?}"),
+                    format!("{MODEL_VERSION} (this build reads model version {MODEL_VERSION})"),
+                ))
+            }
+        }
+        let model: Model = serde_json::from_value(value).map_err(|e| Error::Malformed {
+            at: Location::new(file),
+            message: format!("{e}"),
+            expected: format!("the keys and types of {expected_file}"),
+        })?;
+        model.validate(file)?;
+        Ok(model)
+    }
+
+    fn validate(&self, file: &str) -> Result<()> {
+        let bad = |key: &str, message: String, expected: String| {
+            Err(Error::Malformed {
+                at: Location::new(file),
+                message: format!("key {key:?}: {message}"),
+                expected,
+            })
+        };
+        let (k, d) = (self.classes.len(), self.features.composition.dimension());
+        if k < 2 {
+            return bad(
+                "classes",
+                format!("{k} class(es)"),
+                "at least two classes".into(),
+            );
+        }
+        let mut sorted = self.classes.clone();
+        sorted.sort();
+        sorted.dedup();
+        if sorted != self.classes {
+            return bad(
+                "classes",
+                format!("{:?}", self.classes),
+                "distinct labels in sorted order".into(),
+            );
+        }
+        if self.weights.len() != k || self.weights.iter().any(|w| w.len() != d) {
+            return bad(
+                "weights",
+                format!(
+                    "{} rows of lengths {:?}",
+                    self.weights.len(),
+                    self.weights.iter().map(Vec::len).collect::<Vec<_>>()
+                ),
+                format!(
+                    "{k} rows (one per class) of {d} numbers (one per {} feature)",
+                    self.features.composition
+                ),
+            );
+        }
+        if self.intercepts.len() != k {
+            return bad(
+                "intercepts",
+                format!("{} numbers", self.intercepts.len()),
+                format!("{k} numbers, one per class"),
+            );
+        }
+        if self.features.names.len() != d {
+            return bad(
+                "features.names",
+                format!("{} names", self.features.names.len()),
+                format!("{d} names"),
+            );
+        }
+        let all_finite = self
+            .weights
+            .iter()
+            .flatten()
+            .chain(&self.intercepts)
+            .all(|v| v.is_finite());
+        if !all_finite {
+            return bad(
+                "weights",
+                "a non-finite number".into(),
+                "finite coefficients and intercepts".into(),
+            );
+        }
+        if !self.l2.is_finite() || self.l2 < 0.0 {
+            return bad(
+                "l2",
+                format!("{}", self.l2),
+                "a penalty of 0 or more".into(),
+            );
+        }
+        Ok(())
+    }
+}
+
+/// The date `YYYY-MM-DD` (UTC, proleptic Gregorian) of a Unix time in seconds, by the
+/// days-from-civil inverse of Hinnant (2013, "chrono-Compatible Low-Level Date Algorithms").
+///
+/// # Example
+/// ```
+/// use provenance_core::classifier::utc_date;
+/// assert_eq!(utc_date(0), "1970-01-01");
+/// assert_eq!(utc_date(951_782_400), "2000-02-29");
+/// assert_eq!(utc_date(1_735_689_599), "2024-12-31");
+/// ```
+pub fn utc_date(unix_seconds: i64) -> String {
+    let z = unix_seconds.div_euclid(86_400) + 719_468;
+    let era = z.div_euclid(146_097);
+    let doe = z - era * 146_097;
+    let yoe = (doe - doe / 1460 + doe / 36_524 - doe / 146_096) / 365;
+    let doy = doe - (365 * yoe + yoe / 4 - yoe / 100);
+    let mp = (5 * doy + 2) / 153;
+    let d = doy - (153 * mp + 2) / 5 + 1;
+    let m = if mp < 10 { mp + 3 } else { mp - 9 };
+    let y = yoe + era * 400 + i64::from(m <= 2);
+    format!("{y:04}-{m:02}-{d:02}")
+}

@@ -1,0 +1,253 @@
+//! Unit tests of the classifier.
+
+use super::*;
+use crate::counts::Counting;
+use crate::diagram::Diagram;
+use crate::input::{CountReader, ReadOptions};
+
+fn qfl() -> FeatureSpace {
+    FeatureSpace::Diagram(Diagram::Qfl)
+}
+
+/// Three overlapping invented classes in QFL.
+fn three_classes() -> TrainingSet {
+    let mut t = TrainingSet::new(qfl());
+    for i in 0..40 {
+        let s = (i * 37 % 23) as f64;
+        t.push_amounts("a", &[200.0 + 3.0 * s, 60.0 + s, 40.0], Counting::Counted)
+            .unwrap();
+        t.push_amounts(
+            "b",
+            &[120.0 + 2.0 * s, 150.0 - s, 30.0 + s],
+            Counting::Counted,
+        )
+        .unwrap();
+        t.push_amounts(
+            "c",
+            &[90.0 + s, 60.0 + 2.0 * s, 150.0 - s],
+            Counting::Counted,
+        )
+        .unwrap();
+    }
+    t
+}
+
+#[test]
+fn our_probabilities_equal_linfas() {
+    use linfa::prelude::*;
+    use linfa_logistic::MultiLogisticRegression;
+    let t = three_classes();
+    let f = fit(&t, &FitOptions::default()).unwrap();
+    let x = ndarray::Array2::from_shape_vec(
+        (t.len(), 2),
+        t.features().iter().flatten().copied().collect(),
+    )
+    .unwrap();
+    let y: Vec<usize> = t
+        .labels()
+        .iter()
+        .map(|l| (l.as_bytes()[0] - b'a') as usize)
+        .collect();
+    let lin = MultiLogisticRegression::default()
+        .alpha(1.0)
+        .max_iterations(2000)
+        .gradient_tolerance(1e-9)
+        .fit(&linfa::Dataset::new(x.clone(), ndarray::Array1::from(y)))
+        .unwrap();
+    let p = lin.predict_probabilities(&x);
+    for (i, z) in t.features().iter().enumerate() {
+        let ours = fit::softmax(&f.weights, &f.intercepts, z);
+        for c in 0..3 {
+            assert!((ours[c] - p[[i, c]]).abs() < 1e-5, "row {i} class {c}");
+        }
+    }
+}
+
+#[test]
+fn the_fit_meets_its_tolerance_and_the_penalty_shrinks_weights() {
+    let t = three_classes();
+    let loose = fit(
+        &t,
+        &FitOptions {
+            l2: 0.01,
+            ..Default::default()
+        },
+    )
+    .unwrap();
+    let tight = fit(
+        &t,
+        &FitOptions {
+            l2: 100.0,
+            ..Default::default()
+        },
+    )
+    .unwrap();
+    assert!(loose.convergence.gradient_max <= DEFAULT_TOLERANCE);
+    assert!(tight.convergence.gradient_max <= DEFAULT_TOLERANCE);
+    let norm = |f: &LogisticFit| f.weights.iter().flatten().map(|w| w * w).sum::<f64>();
+    assert!(norm(&tight) < 0.5 * norm(&loose));
+    assert!(tight.convergence.training_log_loss > loose.convergence.training_log_loss);
+}
+
+#[test]
+fn unpenalised_fit_of_separable_classes_is_refused_not_returned() {
+    let mut t = TrainingSet::new(qfl());
+    for i in 0..10 {
+        let s = i as f64;
+        t.push_amounts("q", &[90.0 + s, 5.0, 5.0], Counting::Counted)
+            .unwrap();
+        t.push_amounts("l", &[5.0, 5.0, 90.0 + s], Counting::Counted)
+            .unwrap();
+    }
+    let opts = FitOptions {
+        l2: 0.0,
+        max_iterations: 50,
+        newton_steps: 20,
+        ..Default::default()
+    };
+    let e = fit(&t, &opts).unwrap_err();
+    assert!(e.to_string().contains("separable"), "{e}");
+    assert!(e.to_string().contains("--l2"), "{e}");
+    // With a penalty the same data fit fine.
+    assert!(fit(&t, &FitOptions { l2: 1.0, ..opts }).is_ok());
+}
+
+#[test]
+fn one_class_is_refused() {
+    let mut t = TrainingSet::new(qfl());
+    t.push_amounts("a", &[1.0, 2.0, 3.0], Counting::Counted)
+        .unwrap();
+    t.push_amounts("a", &[3.0, 2.0, 1.0], Counting::Counted)
+        .unwrap();
+    assert!(fit(&t, &FitOptions::default())
+        .unwrap_err()
+        .to_string()
+        .contains("at least two classes"));
+}
+
+#[test]
+fn zeros_are_replaced_keeping_ratios_and_unchanged_without_zeros() {
+    let sp = FeatureSpace::Framework;
+    let amounts = [100.0, 0.0, 50.0, 25.0, 0.0, 15.0, 10.0];
+    let z = sp.features_of(&amounts, Counting::Counted).unwrap();
+    let x = crate::logratio::ilr_inverse(&z);
+    let delta = 0.65 / 200.0;
+    assert!((x[1] - delta).abs() < 1e-12 && (x[4] - delta).abs() < 1e-12);
+    assert!((x[0] / x[2] - 2.0).abs() < 1e-12 && (x[3] / x[6] - 2.5).abs() < 1e-12);
+    let whole = [100.0, 5.0, 50.0, 25.0, 5.0, 10.0, 5.0];
+    let z = sp.features_of(&whole, Counting::Counted).unwrap();
+    assert_eq!(z, crate::logratio::ilr(&whole));
+}
+
+#[test]
+fn checksum_follows_the_data() {
+    let mut a = TrainingSet::new(qfl());
+    let mut b = TrainingSet::new(qfl());
+    a.push_amounts("x", &[1.0, 2.0, 3.0], Counting::Counted)
+        .unwrap();
+    b.push_amounts("x", &[1.0, 2.0, 3.0], Counting::Counted)
+        .unwrap();
+    assert_eq!(a.checksum(), b.checksum());
+    b.push_amounts("y", &[1.0, 2.0, 3.0], Counting::Counted)
+        .unwrap();
+    assert_ne!(a.checksum(), b.checksum());
+    // SHA-256 of "x\t1\t2\t3\n" (sha256sum, GNU coreutils).
+    assert_eq!(
+        a.checksum(),
+        "sha256:3c7bcabbc1b7c9edc3abc2f639f30277176eaf99bc52f7312937ebb067262b8b"
+    );
+}
+
+fn model() -> Model {
+    let t = three_classes();
+    Model::new(
+        fit(&t, &FitOptions::default()).unwrap(),
+        &t,
+        "2025-03-04",
+        "invented",
+        None,
+    )
+}
+
+#[test]
+fn model_files_round_trip_and_bad_ones_name_the_key() {
+    let m = model();
+    let text = m.to_json();
+    assert_eq!(Model::from_json("m.json", &text).unwrap(), m);
+    let mut v: serde_json::Value = serde_json::from_str(&text).unwrap();
+    let check = |v: &serde_json::Value, needle: &str| {
+        let e = Model::from_json("m.json", &v.to_string()).unwrap_err();
+        let s = e.to_string();
+        assert!(s.starts_with("m.json") && s.contains(needle), "{s}");
+    };
+    let mut w = v.clone();
+    w["weights"][0] = serde_json::json!([1.0]);
+    check(&w, "key \"weights\"");
+    let mut w = v.clone();
+    w["classes"] = serde_json::json!(["b", "a", "c"]);
+    check(&w, "sorted order");
+    let mut w = v.clone();
+    w["format"] = serde_json::json!("other");
+    check(&w, "key \"format\"");
+    let mut w = v.clone();
+    w["version"] = serde_json::json!(99);
+    check(&w, "key \"version\"");
+    let mut w = v.clone();
+    w.as_object_mut().unwrap().remove("intercepts");
+    check(&w, "missing field `intercepts`");
+    let mut w = v.clone();
+    w["features"]["composition"] = serde_json::json!("qxl");
+    check(&w, "unknown composition");
+    v["l2"] = serde_json::json!(-1.0);
+    check(&v, "key \"l2\"");
+    let e = Model::from_json("m.json", "{\n\"format\": \"sandprov-model\",\n oops}").unwrap_err();
+    assert!(e.to_string().starts_with("m.json, line 3"), "{e}");
+}
+
+#[test]
+fn a_labelled_table_names_bad_rows() {
+    let text = "sample,Qm,Qp,P,K,Lv,Ls,Lm,setting\nA,10,1,1,1,1,1,1,x\nB,10,1,1,1,1,1,1, \n";
+    let r = CountReader::from_reader("ref.csv", text.as_bytes(), ReadOptions::default()).unwrap();
+    let e = TrainingSet::read(r, "setting", qfl())
+        .unwrap_err()
+        .to_string();
+    assert!(
+        e.contains("ref.csv, line 3, column 9 (\"setting\")")
+            && e.contains("non-empty class label"),
+        "{e}"
+    );
+    let text = "sample,Qm,Qp,P,K,Lv,Ls,Lm,setting\nA,0,0,0,0,0,0,0,x\n";
+    let r = CountReader::from_reader("ref.csv", text.as_bytes(), ReadOptions::default()).unwrap();
+    let e = TrainingSet::read(r, "setting", qfl())
+        .unwrap_err()
+        .to_string();
+    assert!(e.contains("line 2") && e.contains("no grains"), "{e}");
+    let text = "sample,Qm,Qp,P,K,Lv,Ls,Lm,setting\nA,50,0,20,10,10,5,5,x\n";
+    let r = CountReader::from_reader(
+        "ref.csv",
+        text.as_bytes(),
+        ReadOptions {
+            percent: true,
+            ..Default::default()
+        },
+    )
+    .unwrap();
+    let e = TrainingSet::read(r, "setting", FeatureSpace::Framework)
+        .unwrap_err()
+        .to_string();
+    assert!(e.contains("number of points is unknown"), "{e}");
+}
+
+#[test]
+fn running_out_of_iterations_is_refused() {
+    let opts = FitOptions {
+        max_iterations: 1,
+        newton_steps: 0,
+        ..Default::default()
+    };
+    let e = fit(&three_classes(), &opts).unwrap_err().to_string();
+    assert!(
+        e.contains("did not converge in 1 L-BFGS iterations and 0 Newton steps"),
+        "{e}"
+    );
+}
