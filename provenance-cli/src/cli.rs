@@ -246,6 +246,10 @@ pub struct PlotArgs {
     /// (Weltje 2002); needs --by.
     #[arg(long, requires = "by")]
     pub means: bool,
+    /// Draw each sample's 95% confidence region under counting error (logistic-normal in ilr
+    /// space, after Weltje 2002).
+    #[arg(long)]
+    pub regions: bool,
     /// Printed width: single (85 mm), double (175 mm) or a width such as 120mm.
     #[arg(long, default_value = "single", value_name = "SIZE")]
     pub size: String,

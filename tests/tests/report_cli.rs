@@ -110,3 +110,50 @@ fn a_refused_table_leaves_no_report() {
         .code(3);
     assert_eq!(sb.files(), ["c.csv"]);
 }
+
+#[test]
+fn plot_draws_fields_means_and_sample_regions() {
+    let sb = Sandbox::new();
+    sb.sandprov()
+        .arg("plot")
+        .arg(demo_counts())
+        .args([
+            "--diagram",
+            "qfl",
+            "--by",
+            "formation",
+            "--means",
+            "--regions",
+            "-o",
+            "f.svg",
+        ])
+        .assert()
+        .success();
+    let svg = std::fs::read_to_string(sb.path("f.svg")).unwrap();
+    // Dickinson (1985) QFL field names from the embedded set (names may wrap onto two lines).
+    for word in ["craton", "recycled", "dissected", "undissected", "basement"] {
+        assert!(svg.contains(word), "{word}");
+    }
+    assert!(svg.contains("Weltje"));
+    let regions = svg
+        .split("<g id=\"regions\">")
+        .nth(1)
+        .unwrap()
+        .split("</g>")
+        .next()
+        .unwrap();
+    // 40 sample regions plus 2 per group for 3 groups.
+    let outlines = regions.matches("<polyline").count()
+        + regions.matches("<path").count()
+        + regions.matches("<polygon").count();
+    assert!(outlines >= 46, "{outlines} outlines in the regions layer");
+    sb.sandprov()
+        .arg("plot")
+        .arg(demo_counts())
+        .args(["--diagram", "qfl", "--fields", "none", "-o", "g.svg"])
+        .assert()
+        .success();
+    assert!(!std::fs::read_to_string(sb.path("g.svg"))
+        .unwrap()
+        .contains("craton"));
+}

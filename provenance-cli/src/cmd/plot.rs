@@ -51,7 +51,7 @@ pub fn run(a: PlotArgs) -> Result<()> {
             .transpose()?;
     let field_sets = choose_field_sets(&diagrams, &a.fields)?;
     let mut builder = Figure::builder(&diagrams, group_by);
-    let table = if a.means {
+    let table = if a.means || a.regions {
         Some(Table::read(reader)?)
     } else {
         for sample in reader {
@@ -59,12 +59,17 @@ pub fn run(a: PlotArgs) -> Result<()> {
         }
         None
     };
-    if let (Some(table), Some(by)) = (&table, a.by.as_deref()) {
+    if let Some(table) = &table {
         for sample in &table.samples {
             builder.push(sample)?;
         }
-        let column = table.column(by)?;
-        builder.draw_group_means(&Petrofacies::of(table, &column, GroupOptions::default())?);
+        if let (true, Some(by)) = (a.means, a.by.as_deref()) {
+            let column = table.column(by)?;
+            builder.draw_group_means(&Petrofacies::of(table, &column, GroupOptions::default())?);
+        }
+        if a.regions {
+            builder.draw_sample_regions(&table.samples, 0.95);
+        }
     }
     builder.draw_field_sets(&field_sets);
     let bytes = render(&builder.finish(options), format)?;

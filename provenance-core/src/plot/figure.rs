@@ -316,6 +316,20 @@ impl FigureBuilder {
         Ok(())
     }
 
+    /// The group index of an already pushed sample (0 when ungrouped or unknown).
+    pub(crate) fn known_group(&self, sample: &Sample) -> usize {
+        let Some(by) = &self.group_by else {
+            return 0;
+        };
+        let value = sample
+            .metadata
+            .get(by.index)
+            .map(|v| v.trim())
+            .filter(|v| !v.is_empty())
+            .unwrap_or(BLANK_GROUP);
+        self.index.get(value).copied().unwrap_or(0)
+    }
+
     fn group_of(&mut self, sample: &Sample) -> Result<usize> {
         let Some(by) = &self.group_by else {
             return Ok(0);

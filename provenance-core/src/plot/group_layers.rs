@@ -60,7 +60,7 @@ pub fn group_overlays(
     }
     let layer = RegionLayer {
         source: Some(format!(
-            "means: closed geometric; {:.0}% regions of the mean (solid) and for a new sample (dashed), Weltje (2002)",
+            "group means, {:.0}% regions (mean solid, new sample dashed): Weltje (2002)",
             100.0 * level
         )),
         regions,
@@ -114,5 +114,54 @@ impl FigureBuilder {
             panel.means = means;
             panel.regions = Some(regions);
         }
+    }
+
+    /// Draw, on every panel, each sample's 95% confidence region of its composition under
+    /// counting error: the logistic-normal approximation of its Dirichlet posterior in ilr
+    /// space (after Weltje 2002), as a closed curve in its group's colour. Samples whose number
+    /// of points is unknown have none. Call it after pushing the samples. Returns how many
+    /// regions were drawn.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::counts::{Framework, Sample};
+    /// use provenance_core::diagram::Diagram;
+    /// use provenance_core::plot::Figure;
+    /// let s = Sample::counted("A", Framework { qm: 240.0, p: 100.0, lv: 60.0, ..Default::default() });
+    /// let mut b = Figure::builder(&[Diagram::Qfl], None);
+    /// b.push(&s).unwrap();
+    /// assert_eq!(b.draw_sample_regions(&[s], 0.95), 1);
+    /// ```
+    pub fn draw_sample_regions(&mut self, samples: &[crate::counts::Sample], level: f64) -> usize {
+        use crate::membership::{ConfidenceRegion, Posterior};
+        use crate::modes::DiagramMode;
+        let mut drawn = 0;
+        let groups: Vec<usize> = samples.iter().map(|s| self.known_group(s)).collect();
+        for panel in self.panels_mut().iter_mut() {
+            let mut regions = panel.regions.take().unwrap_or_default();
+            for (s, g) in samples.iter().zip(&groups) {
+                let Some(mode) = DiagramMode::of(s, panel.diagram) else {
+                    continue;
+                };
+                let Some(post) = Posterior::of_mode(&mode) else {
+                    continue;
+                };
+                if let Ok(r) = ConfidenceRegion::logistic_normal(&post, level) {
+                    regions.regions.push(Region {
+                        group: *g,
+                        outline: Polygon::new(r.curve().to_vec()),
+                        kind: RegionKind::Confidence,
+                    });
+                    drawn += 1;
+                }
+            }
+            let note = format!("samples: {:.0}% counting-error regions", 100.0 * level);
+            regions.source = Some(match regions.source.take() {
+                Some(s) => format!("{s}; {note}"),
+                None => note,
+            });
+            panel.regions = Some(regions);
+        }
+        drawn
     }
 }
