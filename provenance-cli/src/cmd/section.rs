@@ -3,11 +3,13 @@
 use crate::cli::SectionArgs;
 use provenance_core::diagram::Diagram;
 use provenance_core::error::{Error, Result};
+use provenance_core::membership::MembershipOptions;
 use provenance_core::output::changes_table::{changes_csv, changes_json};
 use provenance_core::output::{check_not_input, Sink};
 use provenance_core::petrofacies::section_svg::{render, FigureOptions};
 use provenance_core::petrofacies::{ChangeOptions, ChangePoints, Ordering, Section, Table};
 use provenance_core::plot::export::{encode, ImageFormat};
+use provenance_core::setting::Locator;
 use std::io::Write;
 use std::path::Path;
 
@@ -83,7 +85,10 @@ pub fn run(a: SectionArgs) -> Result<()> {
     } else {
         Ordering::Height
     };
-    let section = Section::of(&table, &position, ordering, by.as_ref())?;
+    let mut section = Section::of(&table, &position, ordering, by.as_ref())?;
+    // The stacked bar of provenance-group membership on QFL (Dickinson 1985 fields).
+    let locator = Locator::embedded()?.with_membership(MembershipOptions::default(), None)?;
+    section.fill_membership(&locator, Diagram::Qfl);
     let changes = ChangePoints::of_section(&section, &options)?;
     let figure = FigureOptions {
         width_mm: a.width_mm,

@@ -50,6 +50,7 @@ mod linalg;
 mod regions;
 mod section;
 mod section_layout;
+mod section_membership;
 pub mod section_svg;
 mod sigma_polygon;
 mod summary;

@@ -104,7 +104,10 @@ pub fn build(data: &Table, options: &ReportOptions) -> Result<ReportFiles> {
         None => None,
         Some(h) => {
             let position = data.column(h)?;
-            let section = Section::of(data, &position, Ordering::Height, by.as_ref())?;
+            let mut section = Section::of(data, &position, Ordering::Height, by.as_ref())?;
+            let l = Locator::embedded()?
+                .with_membership(crate::membership::MembershipOptions::default(), None)?;
+            section.fill_membership(&l, crate::diagram::Diagram::Qfl);
             let changes = ChangePoints::of_section(&section, &ChangeOptions::default())?;
             Some((section, changes))
         }

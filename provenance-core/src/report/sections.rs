@@ -286,6 +286,12 @@ fn methods(c: &Computed) -> String {
         "Counting error σ = √(p(100 − p)/n): Van der Plas, L. &amp; Tobi, A.C. (1965) A chart for judging the reliability of point counting results. American Journal of Science 263:87-90.",
         "Wilson score interval: Wilson, E.B. (1927) Probable inference, the law of succession, and statistical inference. Journal of the American Statistical Association 22:209-212.",
         "Clopper-Pearson interval: Clopper, C.J. &amp; Pearson, E.S. (1934) The use of confidence or fiducial limits illustrated in the case of the binomial. Biometrika 26:404-413.",
+        "Field membership under counting error: Dirichlet posterior of the pole counts with a Jeffreys prior (counts + ½), integrated over each field polygon; the approach of treating fields as a classifier with probabilities follows Weltje, G.J. (2006) Ternary sandstone composition and provenance: an evaluation of the 'Dickinson model'. Geological Society, London, Special Publications 264:79-99 (details from memory).",
+        "Log-ratio geometry: Aitchison, J. (1986) The Statistical Analysis of Compositional Data. Chapman &amp; Hall; Egozcue, J.J., Pawlowsky-Glahn, V., Mateu-Figueras, G. &amp; Barceló-Vidal, C. (2003) Isometric logratio transformations for compositional data analysis. Mathematical Geology 35:279-300.",
+        "Zero replacement: Martín-Fernández, J.A., Barceló-Vidal, C. &amp; Pawlowsky-Glahn, V. (2003) Dealing with zeros and missing values in compositional data sets using nonparametric imputation. Mathematical Geology 35:253-278.",
+        "Confidence and prediction regions, group means: Weltje, G.J. (2002) Quantitative analysis of detrital modes: statistically rigorous confidence regions in ternary diagrams and their use in sedimentary petrology. Earth-Science Reviews 57:211-253.",
+        "Group comparisons: Hotelling, H. (1931) The generalization of Student's ratio. Annals of Mathematical Statistics 2:360-378; Holm, S. (1979) A simple sequentially rejective multiple test procedure. Scandinavian Journal of Statistics 6:65-70.",
+        "Change points: binary segmentation, Scott, A.J. &amp; Knott, M. (1974) Biometrics 30:507-512; Vostrikova, L.Ju. (1981) Soviet Mathematics Doklady 24:55-59; penalty after Schwarz, G. (1978) Annals of Statistics 6:461-464.",
     ];
     let mut s =
         String::from("<h2 id=\"methods\">Methods and sources</h2>\n<ol class=\"sources\">\n");
