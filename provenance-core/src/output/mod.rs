@@ -62,3 +62,18 @@ pub fn push_csv_cell(buf: &mut Vec<u8>, s: &str) {
         buf.extend_from_slice(s.as_bytes());
     }
 }
+
+/// A sample's metadata as a JSON object (column name → value), in column order; shared by the
+/// modes, names and setting interfaces.
+pub(crate) struct MetadataJson<'a>(pub &'a [String], pub &'a [String]);
+
+impl serde::Serialize for MetadataJson<'_> {
+    fn serialize<S: serde::Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
+        use serde::ser::SerializeMap;
+        let mut m = s.serialize_map(Some(self.0.len()))?;
+        for (k, v) in self.0.iter().zip(self.1) {
+            m.serialize_entry(k, v)?;
+        }
+        m.end()
+    }
+}

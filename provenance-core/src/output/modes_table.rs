@@ -267,17 +267,10 @@ impl Serialize for ModesJson<'_> {
         }
         map.serialize_entry("ratios", &Ratios(modes))?;
         map.serialize_entry("flags", &flags(modes, sample))?;
-        struct Meta<'a>(&'a [String], &'a [String]);
-        impl Serialize for Meta<'_> {
-            fn serialize<S: Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
-                let mut m = s.serialize_map(Some(self.0.len()))?;
-                for (k, v) in self.0.iter().zip(self.1) {
-                    m.serialize_entry(k, v)?;
-                }
-                m.end()
-            }
-        }
-        map.serialize_entry("metadata", &Meta(self.metadata, &sample.metadata))?;
+        map.serialize_entry(
+            "metadata",
+            &crate::output::MetadataJson(self.metadata, &sample.metadata),
+        )?;
         map.end()
     }
 }

@@ -350,17 +350,10 @@ impl Serialize for SettingJson<'_> {
             l.write_sample_entries(&mut map, sl)?;
         }
         map.serialize_entry("caution", CAUTION)?;
-        struct Meta<'a>(&'a [String], &'a [String]);
-        impl Serialize for Meta<'_> {
-            fn serialize<S: Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
-                let mut m = s.serialize_map(Some(self.0.len()))?;
-                for (k, v) in self.0.iter().zip(self.1) {
-                    m.serialize_entry(k, v)?;
-                }
-                m.end()
-            }
-        }
-        map.serialize_entry("metadata", &Meta(self.metadata, &self.sample.metadata))?;
+        map.serialize_entry(
+            "metadata",
+            &crate::output::MetadataJson(self.metadata, &self.sample.metadata),
+        )?;
         map.end()
     }
 }
