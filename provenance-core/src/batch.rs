@@ -1,21 +1,19 @@
-//! Streaming table jobs: read rows in chunks, compute in parallel, write in input order.
+//! Streaming table jobs: read rows in blocks, compute in parallel, write in input order.
 //!
-//! Memory holds one chunk of rows at a time, whatever the size of the input.
+//! Memory holds a few blocks of rows (half a megabyte of input each) at a time, whatever the
+//! size of the input.
 
 use crate::counts::Sample;
 use crate::error::{Error, Result};
+use crate::input::blocks::{Block, Part, Splitter};
+use crate::input::ids::{id_key, IdRegistry};
+use crate::input::reader::{csv_error, is_blank, shift_lines, RawRows, RowParser};
 use crate::input::CountReader;
 use crate::modes::SampleModes;
 use crate::output::{Format, ModesJson, ModesTable};
 use rayon::prelude::*;
 use std::io::Write;
 use std::sync::mpsc;
-
-/// Rows per parallel chunk.
-pub const CHUNK_ROWS: usize = 8192;
-
-/// Rows per parallel task within a chunk.
-const PART_ROWS: usize = 512;
 
 /// Options of the modes table.
 ///
@@ -32,7 +30,7 @@ pub struct ModesOptions {
     pub intervals: bool,
 }
 
-/// Run `each` over the reader's samples chunk by chunk, in parallel, writing each sample's
+/// Run `each` over the reader's samples block by block, in parallel, writing each sample's
 /// bytes to `out` in input order. `begin` and `end` write what comes before and after the rows;
 /// `sep` is written between rows. Returns the number of samples.
 ///
@@ -51,7 +49,7 @@ pub struct ModesOptions {
 /// assert_eq!((n, out.as_slice()), (2, &b"A\nB\n"[..]));
 /// ```
 pub fn stream_rows<W, F>(
-    mut reader: CountReader,
+    reader: CountReader,
     out: &mut W,
     out_name: &str,
     begin: &[u8],
@@ -68,103 +66,226 @@ where
         source,
     };
     out.write_all(begin).map_err(werr)?;
-    let parser = reader.parser().clone();
-    let mut total = 0usize;
-    let mut wrote = false;
-    let mut buffers: Vec<Vec<u8>> = Vec::new();
-    std::thread::scope(|scope| -> Result<()> {
-        // A reader thread splits rows and checks id uniqueness (the only serial work) one
-        // chunk ahead of the workers; record vectors travel back to be reused.
-        let (chunks, chunks_in) = mpsc::sync_channel::<Chunk>(2);
-        let (spare, spare_in) = mpsc::channel::<Vec<csv::ByteRecord>>();
-        scope.spawn(move || loop {
-            let mut records = spare_in.try_recv().unwrap_or_default();
-            let (filled, refusal) = fill_chunk(&mut reader, &mut records);
-            let last = filled < CHUNK_ROWS || refusal.is_some();
-            if chunks
-                .send(Chunk {
-                    records,
-                    filled,
-                    refusal,
-                })
-                .is_err()
-                || last
-            {
-                break;
+    let mut writer = RowWriter {
+        out,
+        werr: &werr,
+        sep,
+        wrote: false,
+        total: 0,
+    };
+    match reader.into_raw_rows() {
+        Ok(raw) => parallel(raw, &mut writer, &each)?,
+        Err(reader) => {
+            // Rows were already read one by one: go on that way.
+            let mut buf = Vec::new();
+            for sample in *reader {
+                buf.clear();
+                each(&sample?, &mut buf);
+                writer.row(&buf)?;
             }
-        });
-        for chunk in chunks_in {
-            // Parallel part: validate, compute and format; the first refusal in row order
-            // wins. Output buffers are kept from chunk to chunk, so their memory is touched once.
-            let parts = chunk.filled.div_ceil(PART_ROWS);
-            if buffers.len() < parts {
-                buffers.resize_with(parts, Vec::new);
-            }
-            let results: Vec<Result<()>> = chunk.records[..chunk.filled]
-                .par_chunks(PART_ROWS)
-                .zip(buffers[..parts].par_iter_mut())
-                .map(|(part, buf)| {
-                    buf.clear();
-                    for (i, rec) in part.iter().enumerate() {
-                        let sample = parser.parse_record(rec)?;
-                        if i > 0 {
-                            buf.extend_from_slice(sep);
-                        }
-                        each(&sample, buf);
-                    }
-                    Ok(())
-                })
-                .collect();
-            for (r, buf) in results.into_iter().zip(&buffers) {
-                r?;
-                if wrote {
-                    out.write_all(sep).map_err(werr)?;
-                }
-                out.write_all(buf).map_err(werr)?;
-                wrote = true;
-            }
-            total += chunk.filled;
-            if let Some(e) = chunk.refusal {
-                return Err(e);
-            }
-            // The reader may have ended; a closed return channel is no error.
-            let _ = spare.send(chunk.records);
         }
-        Ok(())
-    })?;
+    }
+    let total = writer.total;
     out.write_all(end).map_err(werr)?;
     Ok(total)
 }
 
-/// Rows split by the reader thread, not yet validated.
-struct Chunk {
-    records: Vec<csv::ByteRecord>,
-    filled: usize,
-    refusal: Option<Error>,
+/// Writes rows in order, with the separator between them.
+struct RowWriter<'a, W: Write + ?Sized, E: Fn(std::io::Error) -> Error> {
+    out: &'a mut W,
+    werr: &'a E,
+    sep: &'a [u8],
+    wrote: bool,
+    total: usize,
 }
 
-/// Read up to [`CHUNK_ROWS`] raw rows, checking id uniqueness; a refusal ends the chunk at the
-/// offending row.
-fn fill_chunk(
-    reader: &mut CountReader,
-    records: &mut Vec<csv::ByteRecord>,
-) -> (usize, Option<Error>) {
-    let mut filled = 0;
-    while filled < CHUNK_ROWS {
-        if records.len() == filled {
-            records.push(csv::ByteRecord::new());
-        }
-        match reader.read_raw(&mut records[filled]) {
-            Ok(false) => break,
-            Ok(true) => {}
-            Err(e) => return (filled, Some(e)),
-        }
-        if let Err(e) = reader.check_unique(&records[filled]) {
-            return (filled, Some(e));
-        }
-        filled += 1;
+impl<W: Write + ?Sized, E: Fn(std::io::Error) -> Error> RowWriter<'_, W, E> {
+    /// Write one row.
+    fn row(&mut self, bytes: &[u8]) -> Result<()> {
+        self.rows(bytes, 1)
     }
-    (filled, None)
+
+    /// Write `n` rows already joined by the separator.
+    fn rows(&mut self, bytes: &[u8], n: usize) -> Result<()> {
+        if self.wrote {
+            self.out.write_all(self.sep).map_err(self.werr)?;
+        }
+        self.out.write_all(bytes).map_err(self.werr)?;
+        self.wrote = true;
+        self.total += n;
+        Ok(())
+    }
+}
+
+/// What one part of a block produced: its rows' bytes, their id keys (for the in-order
+/// duplicate check) and the first refusal, which ends the part.
+struct PartOut {
+    bytes: Vec<u8>,
+    rows: usize,
+    /// Key, line and end of the id in `id_text`, per row.
+    ids: Vec<(u64, u64, usize)>,
+    id_text: Vec<u8>,
+    refusal: Option<Error>,
+    /// The part's own copy of its rows, with a row splitter kept from part to part (building
+    /// one costs more than splitting a few hundred rows).
+    splitter: csv::Reader<std::io::Cursor<Vec<u8>>>,
+    record: csv::ByteRecord,
+    sample: Sample,
+}
+
+impl PartOut {
+    fn new(delimiter: u8) -> PartOut {
+        PartOut {
+            bytes: Vec::new(),
+            rows: 0,
+            ids: Vec::new(),
+            id_text: Vec::new(),
+            refusal: None,
+            splitter: csv::ReaderBuilder::new()
+                .delimiter(delimiter)
+                .flexible(true)
+                .has_headers(false)
+                .from_reader(std::io::Cursor::new(Vec::new())),
+            record: csv::ByteRecord::new(),
+            sample: Sample::counted(String::new(), crate::counts::Framework::default()),
+        }
+    }
+
+    /// Validate, compute and format one part's rows.
+    fn run<F>(&mut self, parser: &RowParser, block: &[u8], part: Part, sep: &[u8], each: &F)
+    where
+        F: Fn(&Sample, &mut Vec<u8>) + Sync,
+    {
+        self.bytes.clear();
+        self.ids.clear();
+        self.id_text.clear();
+        self.rows = 0;
+        self.refusal = None;
+        let text = self.splitter.get_mut().get_mut();
+        text.clear();
+        text.extend_from_slice(&block[part.start..part.end]);
+        // Seeking to the start clears the splitter's end-of-input state and counts lines from 1.
+        if let Err(e) = self.splitter.seek(csv::Position::new()) {
+            self.refusal = Some(csv_error(parser.file(), e));
+            return;
+        }
+        loop {
+            match self.splitter.read_byte_record(&mut self.record) {
+                Ok(true) => {}
+                Ok(false) => return,
+                Err(e) => {
+                    self.refusal = Some(csv_error(parser.file(), e));
+                    return;
+                }
+            }
+            shift_lines(&mut self.record, part.line - 1);
+            if is_blank(&self.record) {
+                continue;
+            }
+            if let Err(e) = parser.parse_into(&self.record, &mut self.sample) {
+                self.refusal = Some(e);
+                return;
+            }
+            let id = self.sample.id.as_bytes();
+            self.id_text.extend_from_slice(id);
+            self.ids
+                .push((id_key(id), self.sample.line, self.id_text.len()));
+            if self.rows > 0 {
+                self.bytes.extend_from_slice(sep);
+            }
+            each(&self.sample, &mut self.bytes);
+            self.rows += 1;
+        }
+    }
+}
+
+/// A block read by the reader thread, or the refusal that ended reading.
+type BlockMsg = std::result::Result<Block, Error>;
+
+/// The parallel path. A reader thread cuts the stream into blocks of whole rows (the only
+/// serial reading work); a second thread has the rayon pool validate, compute and format each
+/// block's parts; this thread checks id uniqueness in row order and writes. Blocks, parts and
+/// their buffers travel back to be reused, so memory stays at a few blocks whatever the input.
+fn parallel<W, E, F>(raw: RawRows, writer: &mut RowWriter<'_, W, E>, each: &F) -> Result<()>
+where
+    W: Write + ?Sized,
+    E: Fn(std::io::Error) -> Error,
+    F: Fn(&Sample, &mut Vec<u8>) + Sync,
+{
+    let RawRows {
+        parser,
+        data,
+        first_line,
+    } = raw;
+    let mut splitter = Splitter::new(data, parser.file(), first_line);
+    let delimiter = parser.delimiter();
+    let parser = &parser;
+    let sep = writer.sep;
+    let mut seen = IdRegistry::default();
+    std::thread::scope(|scope| -> Result<()> {
+        let (blocks, blocks_in) = mpsc::sync_channel::<BlockMsg>(1);
+        let (spare_blocks, spare_blocks_in) = mpsc::channel::<Block>();
+        let (done, done_in) = mpsc::sync_channel::<(Vec<PartOut>, Option<Error>)>(1);
+        let (spare_outs, spare_outs_in) = mpsc::channel::<Vec<PartOut>>();
+        scope.spawn(move || loop {
+            let mut block = spare_blocks_in.try_recv().unwrap_or_default();
+            let msg = match splitter.fill(&mut block, delimiter) {
+                Ok(true) => Ok(block),
+                Ok(false) => break,
+                Err(e) => Err(e),
+            };
+            let last = msg.is_err();
+            if blocks.send(msg).is_err() || last {
+                break;
+            }
+        });
+        scope.spawn(move || {
+            for msg in blocks_in {
+                let mut outs = spare_outs_in.try_recv().unwrap_or_default();
+                let block = match msg {
+                    Ok(block) => block,
+                    Err(e) => {
+                        let _ = done.send((outs, Some(e)));
+                        return;
+                    }
+                };
+                if outs.len() < block.parts.len() {
+                    outs.resize_with(block.parts.len(), || PartOut::new(delimiter));
+                }
+                outs.truncate(block.parts.len());
+                outs.par_iter_mut()
+                    .zip(block.parts.par_iter())
+                    .for_each(|(out, part)| out.run(parser, &block.bytes, *part, sep, each));
+                // The reader may have ended; a closed return channel is no error.
+                let _ = spare_blocks.send(block);
+                if done.send((outs, None)).is_err() {
+                    return;
+                }
+            }
+        });
+        for (mut outs, refusal) in done_in {
+            for out in &mut outs {
+                let mut id_start = 0;
+                for &(key, line, id_end) in &out.ids {
+                    if let Some(first) = seen.insert(key, line) {
+                        return Err(parser.duplicate(&out.id_text[id_start..id_end], line, first));
+                    }
+                    id_start = id_end;
+                }
+                if out.rows > 0 {
+                    writer.rows(&out.bytes, out.rows)?;
+                }
+                if let Some(e) = out.refusal.take() {
+                    return Err(e);
+                }
+            }
+            if let Some(e) = refusal {
+                return Err(e);
+            }
+            let _ = spare_outs.send(outs);
+        }
+        Ok(())
+    })
 }
 
 /// Write the modes table of every sample in `reader` to `out`.
@@ -236,14 +357,77 @@ mod tests {
         t
     }
 
+    /// Rows enough to fill more than two blocks.
+    const MANY: usize = 2 * crate::input::blocks::BLOCK_BYTES / 20 + 17;
+
     #[test]
-    fn counts_every_row_across_chunks() {
-        assert_eq!(
-            run(table(CHUNK_ROWS * 2 + 17)).unwrap(),
-            CHUNK_ROWS * 2 + 17
-        );
-        assert_eq!(run(table(CHUNK_ROWS)).unwrap(), CHUNK_ROWS);
+    fn counts_every_row_across_blocks() {
+        assert_eq!(run(table(MANY)).unwrap(), MANY);
+        let part = crate::input::blocks::PART_ROWS;
+        assert_eq!(run(table(part)).unwrap(), part);
         assert_eq!(run(table(0)).unwrap(), 0);
+    }
+
+    #[test]
+    fn rows_come_out_in_input_order_with_multiline_cells() {
+        // Quoted cells holding line breaks straddle part and block ends; the output must be
+        // the same as one row at a time.
+        let mut t = String::from("sample,Qm,Qp,P,K,Lv,Ls,Lm,notes\n");
+        for i in 0..MANY {
+            let note = if i % 5 == 0 {
+                "\"a, \"\"b\"\"\nc\""
+            } else {
+                "x"
+            };
+            t.push_str(&format!("S{i},10,1,2,3,4,5,{},{note}\n", i % 9));
+        }
+        let parallel = {
+            let r = CountReader::from_reader(
+                "t.csv",
+                std::io::Cursor::new(t.clone().into_bytes()),
+                ReadOptions::default(),
+            )
+            .unwrap();
+            let mut out = Vec::new();
+            write_modes(r, &mut out, "out", ModesOptions::default()).unwrap();
+            out
+        };
+        let mut r = CountReader::from_reader(
+            "t.csv",
+            std::io::Cursor::new(t.into_bytes()),
+            ReadOptions::default(),
+        )
+        .unwrap();
+        let table = ModesTable {
+            metadata: r.metadata_columns().to_vec(),
+            intervals: false,
+        };
+        let mut serial = Vec::new();
+        table.push_header(&mut serial);
+        let mut lines = Vec::new();
+        for s in &mut r {
+            let s = s.unwrap();
+            lines.push(s.line);
+            table.push_row(&mut serial, &s, &SampleModes::of(&s));
+        }
+        assert_eq!(parallel, serial);
+        // Line numbers count the line breaks inside quoted cells.
+        assert_eq!(lines[1], 4);
+        assert_eq!(lines[6], 10);
+    }
+
+    #[test]
+    fn a_bad_cell_in_a_later_block_is_located() {
+        let mut t = table(MANY);
+        t = t.replace(
+            &format!("S{},10,", MANY - 3),
+            &format!("S{},1.5,", MANY - 3),
+        );
+        let e = run(t).unwrap_err().to_string();
+        assert!(
+            e.starts_with(&format!("t.csv, line {}, column 2", MANY - 1)),
+            "{e}"
+        );
     }
 
     #[test]
@@ -257,8 +441,8 @@ mod tests {
     }
 
     #[test]
-    fn a_duplicate_in_a_later_chunk_names_both_lines() {
-        let mut t = table(CHUNK_ROWS + 100);
+    fn a_duplicate_in_a_later_block_names_both_lines() {
+        let mut t = table(MANY);
         t.push_str("S5,1,1,1,1,1,1,1\n");
         let e = run(t).unwrap_err().to_string();
         assert!(

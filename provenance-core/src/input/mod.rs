@@ -6,11 +6,13 @@
 //! number of metadata columns carried through untouched. Header matching ignores case,
 //! spaces, underscores and hyphens. A [`Mapping`] maps a lab's own columns onto categories.
 
+pub(crate) mod blocks;
 mod cell;
 mod crlf;
+pub(crate) mod ids;
 mod layout;
 pub mod mapping;
-mod reader;
+pub(crate) mod reader;
 
 pub use mapping::Mapping;
 pub use reader::{CountReader, Dialect, ReadOptions, MAX_COUNT};

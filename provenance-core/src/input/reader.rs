@@ -2,12 +2,11 @@
 
 use super::cell;
 use super::crlf::CrlfToLf;
+use super::ids::{id_key, IdRegistry};
 use super::layout::{resolve, Layout, Role};
 use super::mapping::Mapping;
 use crate::counts::{Counting, Framework, NonFramework, Sample};
 use crate::error::{Column, Error, Location, Result};
-use std::collections::HashMap;
-use std::hash::{BuildHasherDefault, Hasher};
 use std::io::{BufRead, BufReader, Cursor, Read};
 
 pub use super::cell::MAX_COUNT;
@@ -67,12 +66,25 @@ pub struct Dialect {
 /// assert!(r.next().is_none());
 /// ```
 pub struct CountReader {
-    csv: csv::Reader<Box<dyn Read + Send>>,
+    /// The data rows after the header, CRLF-normalised; taken when rows are first read.
+    data: Option<Box<dyn Read + Send>>,
+    /// The row splitter of the one-by-one path, built on first use.
+    csv: Option<csv::Reader<Box<dyn Read + Send>>>,
+    /// File lines before the first data line (leading blank lines and the header).
+    lines_before: u64,
     meta_names: Vec<String>,
     parser: RowParser,
-    seen: HashMap<u64, u64, BuildHasherDefault<PassThrough>>,
+    seen: IdRegistry,
     record: csv::ByteRecord,
     done: bool,
+}
+
+/// A reader taken apart for the parallel path: the validator, the raw data rows and the file
+/// line of their first byte.
+pub(crate) struct RawRows {
+    pub parser: RowParser,
+    pub data: Box<dyn Read + Send>,
+    pub first_line: u64,
 }
 
 /// Everything needed to validate one row, shared read-only by parallel workers.
@@ -142,6 +154,16 @@ impl CountReader {
                 break start;
             }
         };
+        // A quoted header cell may hold a line break: read on while a quote is open.
+        while head[header_start..].iter().filter(|b| **b == b'"').count() % 2 == 1 {
+            let n = (&mut buf)
+                .take(1 << 20)
+                .read_until(b'\n', &mut head)
+                .map_err(read_err)?;
+            if n == 0 || head.len() > 1 << 20 {
+                break;
+            }
+        }
         let bom = head.starts_with(b"\xEF\xBB\xBF");
         if bom {
             head.drain(..3);
@@ -162,13 +184,13 @@ impl CountReader {
             decimal_comma: delimiter == b';',
             bom,
         };
-        let source: Box<dyn Read + Send> = Box::new(CrlfToLf::new(Cursor::new(head).chain(buf)));
-        let mut csv = csv::ReaderBuilder::new()
+        let lines_before = head.iter().filter(|b| **b == b'\n').count() as u64;
+        let mut header_csv = csv::ReaderBuilder::new()
             .delimiter(delimiter)
             .flexible(true)
             .has_headers(true)
-            .from_reader(source);
-        let headers: Vec<String> = csv
+            .from_reader(Cursor::new(&head[header_start..]));
+        let headers: Vec<String> = header_csv
             .headers()
             .map_err(|e| csv_error(file, e))?
             .iter()
@@ -177,7 +199,9 @@ impl CountReader {
         let layout = resolve(file, &headers, options.mapping.as_ref(), options.percent)?;
         let meta_names = layout.meta.iter().map(|i| headers[*i].clone()).collect();
         Ok(CountReader {
-            csv,
+            data: Some(Box::new(CrlfToLf::new(buf))),
+            csv: None,
+            lines_before,
             meta_names,
             parser: RowParser {
                 file: file.to_string(),
@@ -186,10 +210,30 @@ impl CountReader {
                 dialect,
                 percent: options.percent,
             },
-            seen: HashMap::default(),
+            seen: IdRegistry::default(),
             record: csv::ByteRecord::new(),
             done: false,
         })
+    }
+
+    /// Take the reader apart for the parallel path; `None` once rows were read one by one.
+    pub(crate) fn into_raw_rows(self) -> std::result::Result<RawRows, Box<CountReader>> {
+        match (self.csv.is_none(), self.data.is_some()) {
+            (true, true) => {
+                let CountReader {
+                    data,
+                    parser,
+                    lines_before,
+                    ..
+                } = self;
+                Ok(RawRows {
+                    parser,
+                    data: data.unwrap_or_else(|| Box::new(std::io::empty())),
+                    first_line: lines_before + 1,
+                })
+            }
+            _ => Err(Box::new(self)),
+        }
     }
 
     /// The file name used in messages.
@@ -227,19 +271,24 @@ impl CountReader {
         self.parser.layout.present[category.index()]
     }
 
-    /// The row validator, for parallel use.
-    pub(crate) fn parser(&self) -> &RowParser {
-        &self.parser
-    }
-
     /// Read the next non-blank row into `rec` without validating it; `false` at the end.
     /// Rows of empty cells (spreadsheet trailers such as ";;;;") are skipped.
     pub(crate) fn read_raw(&mut self, rec: &mut csv::ByteRecord) -> Result<bool> {
         if self.done {
             return Ok(false);
         }
+        let lines_before = self.lines_before;
+        let data = &mut self.data;
+        let delimiter = self.parser.dialect.delimiter;
+        let csv = self.csv.get_or_insert_with(|| {
+            csv::ReaderBuilder::new()
+                .delimiter(delimiter)
+                .flexible(true)
+                .has_headers(false)
+                .from_reader(data.take().unwrap_or_else(|| Box::new(std::io::empty())))
+        });
         loop {
-            match self.csv.read_byte_record(rec) {
+            match csv.read_byte_record(rec) {
                 Ok(false) => {
                     self.done = true;
                     return Ok(false);
@@ -250,7 +299,8 @@ impl CountReader {
                     return Err(csv_error(&self.parser.file, e));
                 }
             }
-            if !rec.iter().all(|f| cell::trimmed(f).is_empty()) {
+            shift_lines(rec, lines_before);
+            if !is_blank(rec) {
                 return Ok(true);
             }
         }
@@ -267,20 +317,48 @@ impl CountReader {
             return Ok(());
         }
         let line = line_of(rec);
-        let key = fnv1a(id);
-        if let Some(first) = self.seen.insert(key, line) {
-            self.seen.insert(key, first);
-            return Err(Error::DuplicateId {
-                at: self.parser.location(line, self.parser.layout.id),
-                id: String::from_utf8_lossy(id).into_owned(),
-                first_line: first,
-            });
+        match self.seen.insert(id_key(id), line) {
+            Some(first) => Err(self.parser.duplicate(id, line, first)),
+            None => Ok(()),
         }
-        Ok(())
+    }
+}
+
+/// Rows of empty cells (spreadsheet trailers such as ";;;;") are skipped.
+pub(crate) fn is_blank(rec: &csv::ByteRecord) -> bool {
+    rec.iter().all(|f| cell::trimmed(f).is_empty())
+}
+
+/// Move a record's line number on by `lines` (records split from part of a file count lines
+/// from 1).
+pub(crate) fn shift_lines(rec: &mut csv::ByteRecord, lines: u64) {
+    if let Some(p) = rec.position() {
+        let mut p = p.clone();
+        p.set_line(p.line() + lines);
+        rec.set_position(Some(p));
     }
 }
 
 impl RowParser {
+    /// The file name used in messages.
+    pub(crate) fn file(&self) -> &str {
+        &self.file
+    }
+
+    /// The field delimiter.
+    pub(crate) fn delimiter(&self) -> u8 {
+        self.dialect.delimiter
+    }
+
+    /// The refusal of an id first used on `first`, used again on `line`.
+    pub(crate) fn duplicate(&self, id: &[u8], line: u64, first: u64) -> Error {
+        Error::DuplicateId {
+            at: self.location(line, self.layout.id),
+            id: String::from_utf8_lossy(id).into_owned(),
+            first_line: first,
+        }
+    }
+
     fn location(&self, line: u64, col: usize) -> Location {
         Location::new(&self.file).line(line).column(Column {
             index: col + 1,
@@ -288,17 +366,33 @@ impl RowParser {
         })
     }
 
-    fn text(&self, rec: &csv::ByteRecord, line: u64, col: usize) -> Result<String> {
-        std::str::from_utf8(&rec[col])
-            .map(str::to_string)
-            .map_err(|_| Error::NotText {
-                at: self.location(line, col),
-            })
+    /// Copy a text cell into `into`, reusing its allocation.
+    fn text_into(
+        &self,
+        rec: &csv::ByteRecord,
+        line: u64,
+        col: usize,
+        into: &mut String,
+    ) -> Result<()> {
+        let text = std::str::from_utf8(&rec[col]).map_err(|_| Error::NotText {
+            at: self.location(line, col),
+        })?;
+        into.clear();
+        into.push_str(text);
+        Ok(())
     }
 
     /// Validate one raw row into a sample. Needs no earlier rows, so chunks of rows can be
     /// validated in parallel.
     pub(crate) fn parse_record(&self, rec: &csv::ByteRecord) -> Result<Sample> {
+        let mut sample = Sample::counted(String::new(), Framework::default());
+        self.parse_into(rec, &mut sample)?;
+        Ok(sample)
+    }
+
+    /// [`RowParser::parse_record`] into an existing sample, reusing its id and metadata
+    /// strings (the streaming path allocates nothing per row). On error `into` is unspecified.
+    pub(crate) fn parse_into(&self, rec: &csv::ByteRecord, into: &mut Sample) -> Result<()> {
         let line = line_of(rec);
         let width = self.headers.len();
         if rec.len() != width {
@@ -308,11 +402,15 @@ impl RowParser {
                 expected: width,
             });
         }
-        let id = self.text(rec, line, self.layout.id)?.trim().to_string();
-        if id.is_empty() {
+        self.text_into(rec, line, self.layout.id, &mut into.id)?;
+        let trimmed = into.id.trim();
+        if trimmed.is_empty() {
             return Err(Error::MissingId {
                 at: self.location(line, self.layout.id),
             });
+        }
+        if trimmed.len() != into.id.len() {
+            into.id = trimmed.to_string();
         }
         let mut framework = Framework::default();
         let mut other = NonFramework::default();
@@ -355,54 +453,24 @@ impl RowParser {
             }
             (true, None) => Counting::Unknown,
         };
-        let mut metadata = Vec::with_capacity(self.layout.meta.len());
-        for &j in &self.layout.meta {
-            metadata.push(self.text(rec, line, j)?);
+        into.metadata
+            .resize_with(self.layout.meta.len(), String::new);
+        for (k, &j) in self.layout.meta.iter().enumerate() {
+            self.text_into(rec, line, j, &mut into.metadata[k])?;
         }
-        Ok(Sample {
-            id,
-            line,
-            framework,
-            other,
-            counting,
-            metadata,
-        })
+        into.line = line;
+        into.framework = framework;
+        into.other = other;
+        into.counting = counting;
+        Ok(())
     }
 }
 
-/// FNV-1a, 64 bits (Fowler, Noll & Vo; public-domain reference parameters): the key under
-/// which an id is remembered. Two different ids share a key with probability about n²/2⁶⁵
-/// (below 10⁻⁸ for a million samples); such a pair would be reported as a duplicate.
-fn fnv1a(bytes: &[u8]) -> u64 {
-    let mut h: u64 = 0xcbf2_9ce4_8422_2325;
-    for b in bytes {
-        h ^= u64::from(*b);
-        h = h.wrapping_mul(0x0000_0100_0000_01b3);
-    }
-    h
-}
-
-/// The id keys are already hashes: the map uses them as they are.
-#[derive(Default)]
-struct PassThrough(u64);
-
-impl Hasher for PassThrough {
-    fn finish(&self) -> u64 {
-        self.0
-    }
-    fn write(&mut self, bytes: &[u8]) {
-        self.0 = fnv1a(bytes);
-    }
-    fn write_u64(&mut self, v: u64) {
-        self.0 = v;
-    }
-}
-
-fn line_of(rec: &csv::ByteRecord) -> u64 {
+pub(crate) fn line_of(rec: &csv::ByteRecord) -> u64 {
     rec.position().map_or(0, |p| p.line())
 }
 
-fn csv_error(file: &str, e: csv::Error) -> Error {
+pub(crate) fn csv_error(file: &str, e: csv::Error) -> Error {
     let line = e.position().map(|p| p.line());
     match e.into_kind() {
         csv::ErrorKind::Io(source) => Error::Read {

@@ -55,6 +55,61 @@ pub fn check_not_input(output: &Path, inputs: &[&Path]) -> Result<()> {
 pub struct AtomicFile {
     tmp: BufWriter<tempfile::NamedTempFile>,
     path: PathBuf,
+    writeback: Writeback,
+}
+
+/// Bytes written between requests to start flushing the file to disk.
+const WRITEBACK_BYTES: u64 = 8 << 20;
+
+/// Flushes a large output to disk on a background thread while it is still being written, so
+/// that the final `sync_all` before the rename (the durability half of atomic replacement,
+/// common practice) waits only for the last few megabytes.
+struct Writeback {
+    written: u64,
+    requested_at: u64,
+    worker: Option<(
+        std::sync::mpsc::SyncSender<()>,
+        std::thread::JoinHandle<std::io::Result<()>>,
+    )>,
+}
+
+impl Writeback {
+    fn wrote(&mut self, n: usize, file: &std::fs::File) {
+        self.written += n as u64;
+        if self.written - self.requested_at < WRITEBACK_BYTES {
+            return;
+        }
+        self.requested_at = self.written;
+        if self.worker.is_none() {
+            // Without a second handle the final sync does all the work: no loss, only time.
+            let Ok(file) = file.try_clone() else { return };
+            let (tx, rx) = std::sync::mpsc::sync_channel::<()>(1);
+            let handle = std::thread::spawn(move || {
+                for () in rx {
+                    file.sync_data()?;
+                }
+                Ok(())
+            });
+            self.worker = Some((tx, handle));
+        }
+        if let Some((tx, _)) = &self.worker {
+            // A request still pending covers this one.
+            let _ = tx.try_send(());
+        }
+    }
+
+    /// Wait for the background flushes; their errors are the file's errors.
+    fn finish(&mut self) -> std::io::Result<()> {
+        match self.worker.take() {
+            Some((tx, handle)) => {
+                drop(tx);
+                handle
+                    .join()
+                    .unwrap_or_else(|_| Err(std::io::Error::other("writeback thread failed")))
+            }
+            None => Ok(()),
+        }
+    }
 }
 
 impl AtomicFile {
@@ -75,6 +130,11 @@ impl AtomicFile {
         Ok(AtomicFile {
             tmp: BufWriter::with_capacity(1 << 16, tmp),
             path: path.to_path_buf(),
+            writeback: Writeback {
+                written: 0,
+                requested_at: 0,
+                worker: None,
+            },
         })
     }
 
@@ -84,11 +144,14 @@ impl AtomicFile {
     }
 
     /// Flush and move the file into place.
-    pub fn commit(self) -> Result<()> {
+    pub fn commit(mut self) -> Result<()> {
+        let path = self.path.display().to_string();
         let err = |source| Error::Write {
-            path: self.path.display().to_string(),
+            path: path.clone(),
             source,
         };
+        self.tmp.flush().map_err(err)?;
+        self.writeback.finish().map_err(err)?;
         let tmp = self.tmp.into_inner().map_err(|e| err(e.into_error()))?;
         // Temporary files are created private (0600); a finished output gets the usual
         // permissions of a new file (0644 before the umask), as any other program's would.
@@ -108,7 +171,9 @@ impl AtomicFile {
 
 impl Write for AtomicFile {
     fn write(&mut self, buf: &[u8]) -> std::io::Result<usize> {
-        self.tmp.write(buf)
+        let n = self.tmp.write(buf)?;
+        self.writeback.wrote(n, self.tmp.get_ref().as_file());
+        Ok(n)
     }
     fn flush(&mut self) -> std::io::Result<()> {
         self.tmp.flush()

@@ -43,20 +43,28 @@ const POW10: [f64; 7] = [1.0, 10.0, 100.0, 1e3, 1e4, 1e5, 1e6];
 /// provenance_core::output::number::push_fixed(&mut b, 2.0 / 3.0, 2);
 /// assert_eq!(b, b"0.67");
 /// ```
+#[inline]
 pub fn push_fixed(buf: &mut Vec<u8>, x: f64, decimals: u32) {
     let d = decimals.min(6) as usize;
     // Truncating x·10ᵈ + ½ rounds half away from zero for the non-negative magnitude.
     let scaled = x.abs() * POW10[d] + 0.5;
     // Fast path: percentages and ratios written with 2 or 4 decimals come from a table.
     if x >= 0.0 && scaled < (SMALL_MAX + 1) as f64 && (d == 2 || d == 4) {
-        let t = small_table(d);
-        let v = scaled as usize;
-        // A fixed 8-byte copy (one move) then a truncate beats a variable-length copy.
-        let keep = buf.len() + t.len[v] as usize;
-        buf.extend_from_slice(&t.text[v]);
+        let t = if d == 2 { &TWO } else { &FOUR };
+        let e = &t[scaled as usize];
+        // A fixed 8-byte copy (one move) then a truncate beats a variable-length copy; the
+        // last byte of each entry holds the text's length.
+        let keep = buf.len() + e[7] as usize;
+        buf.extend_from_slice(e);
         buf.truncate(keep);
         return;
     }
+    push_general(buf, x, d, scaled);
+}
+
+/// The general path of [`push_fixed`]: any magnitude and sign.
+#[inline(never)]
+fn push_general(buf: &mut Vec<u8>, x: f64, d: usize, scaled: f64) {
     if !scaled.is_finite() || scaled >= 1.8e19 {
         buf.extend_from_slice(format!("{x}").as_bytes());
         return;
@@ -107,38 +115,43 @@ pub fn push_fixed(buf: &mut Vec<u8>, x: f64, decimals: u32) {
 /// Largest scaled value served from the tables (100.00 or 1.0000).
 const SMALL_MAX: usize = 10_000;
 
-struct SmallTable {
-    text: Vec<[u8; 8]>,
-    len: Vec<u8>,
-}
-
-fn build_table(d: usize) -> SmallTable {
-    let mut text = Vec::with_capacity(SMALL_MAX + 1);
-    let mut len = Vec::with_capacity(SMALL_MAX + 1);
-    for v in 0..=SMALL_MAX {
-        let s = format!(
-            "{}.{:0w$}",
-            v / 10usize.pow(d as u32),
-            v % 10usize.pow(d as u32),
-            w = d
-        );
+/// Text of `v / 10ᵈ` with `d` decimals for every `v` up to [`SMALL_MAX`], built at compile
+/// time: bytes 0..len hold the text, byte 7 its length.
+const fn build_table(d: usize) -> [[u8; 8]; SMALL_MAX + 1] {
+    let mut t = [[0u8; 8]; SMALL_MAX + 1];
+    let scale = if d == 2 { 100 } else { 10_000 };
+    let mut v = 0;
+    while v <= SMALL_MAX {
+        let (int, mut frac) = (v / scale, v % scale);
         let mut e = [0u8; 8];
-        e[..s.len()].copy_from_slice(s.as_bytes());
-        text.push(e);
-        len.push(s.len() as u8);
+        let mut i = 0;
+        if int >= 100 {
+            e[i] = b'0' + (int / 100) as u8;
+            i += 1;
+        }
+        if int >= 10 {
+            e[i] = b'0' + (int / 10 % 10) as u8;
+            i += 1;
+        }
+        e[i] = b'0' + (int % 10) as u8;
+        e[i + 1] = b'.';
+        i += 2;
+        let mut k = d;
+        while k > 0 {
+            k -= 1;
+            e[i + k] = b'0' + (frac % 10) as u8;
+            frac /= 10;
+        }
+        i += d;
+        e[7] = i as u8;
+        t[v] = e;
+        v += 1;
     }
-    SmallTable { text, len }
+    t
 }
 
-fn small_table(d: usize) -> &'static SmallTable {
-    static TWO: std::sync::OnceLock<SmallTable> = std::sync::OnceLock::new();
-    static FOUR: std::sync::OnceLock<SmallTable> = std::sync::OnceLock::new();
-    if d == 2 {
-        TWO.get_or_init(|| build_table(2))
-    } else {
-        FOUR.get_or_init(|| build_table(4))
-    }
-}
+static TWO: [[u8; 8]; SMALL_MAX + 1] = build_table(2);
+static FOUR: [[u8; 8]; SMALL_MAX + 1] = build_table(4);
 
 const DIGIT_PAIRS: &[u8; 200] = b"\
 0001020304050607080910111213141516171819\
@@ -155,6 +168,7 @@ const DIGIT_PAIRS: &[u8; 200] = b"\
 /// provenance_core::output::number::push_points(&mut b, 412.0);
 /// assert_eq!(b, b"412");
 /// ```
+#[inline]
 pub fn push_points(buf: &mut Vec<u8>, n: f64) {
     if n.fract() == 0.0 && (0.0..1e18).contains(&n) {
         push_u64(buf, n as u64);
