@@ -5,9 +5,9 @@
 
 use crate::counts::Sample;
 use crate::error::{Error, Result};
-use crate::input::blocks::{Block, Part, Splitter};
+use crate::input::blocks::{Block, Part, PartRows, Splitter};
 use crate::input::ids::{id_key, IdRegistry};
-use crate::input::reader::{csv_error, is_blank, shift_lines, RawRows, RowParser};
+use crate::input::reader::{csv_error, is_blank, RawRows, RowParser};
 use crate::input::CountReader;
 use crate::modes::SampleModes;
 use crate::output::{Format, ModesJson, ModesTable};
@@ -126,9 +126,7 @@ struct PartOut {
     ids: Vec<(u64, u64, usize)>,
     id_text: Vec<u8>,
     refusal: Option<Error>,
-    /// The part's own copy of its rows, with a row splitter kept from part to part (building
-    /// one costs more than splitting a few hundred rows).
-    splitter: csv::Reader<std::io::Cursor<Vec<u8>>>,
+    splitter: PartRows,
     record: csv::ByteRecord,
     sample: Sample,
 }
@@ -141,11 +139,7 @@ impl PartOut {
             ids: Vec::new(),
             id_text: Vec::new(),
             refusal: None,
-            splitter: csv::ReaderBuilder::new()
-                .delimiter(delimiter)
-                .flexible(true)
-                .has_headers(false)
-                .from_reader(std::io::Cursor::new(Vec::new())),
+            splitter: PartRows::new(delimiter),
             record: csv::ByteRecord::new(),
             sample: Sample::counted(String::new(), crate::counts::Framework::default()),
         }
@@ -161,16 +155,13 @@ impl PartOut {
         self.id_text.clear();
         self.rows = 0;
         self.refusal = None;
-        let text = self.splitter.get_mut().get_mut();
-        text.clear();
-        text.extend_from_slice(&block[part.start..part.end]);
-        // Seeking to the start clears the splitter's end-of-input state and counts lines from 1.
-        if let Err(e) = self.splitter.seek(csv::Position::new()) {
+        let text = &block[part.start..part.end];
+        if let Err(e) = self.splitter.start(text, part.line) {
             self.refusal = Some(csv_error(parser.file(), e));
             return;
         }
         loop {
-            match self.splitter.read_byte_record(&mut self.record) {
+            match self.splitter.read(text, &mut self.record) {
                 Ok(true) => {}
                 Ok(false) => return,
                 Err(e) => {
@@ -178,7 +169,6 @@ impl PartOut {
                     return;
                 }
             }
-            shift_lines(&mut self.record, part.line - 1);
             if is_blank(&self.record) {
                 continue;
             }

@@ -304,3 +304,15 @@ fn a_missing_file_is_an_io_error_naming_the_path() {
     assert_eq!(e.kind(), provenance_core::error::ErrorKind::Io);
     assert!(e.to_string().starts_with("cannot read /no/such/counts.csv"));
 }
+
+#[test]
+fn lines_after_blank_lines_are_counted_as_an_editor_shows_them() {
+    // Lines 3 and 4 are blank; the bad cell sits on line 5, with or without quotes in the table.
+    for note in ["plain", "\"quoted, note\""] {
+        let t = format!("{HEAD},notes\nA,1,1,1,1,1,1,1,1,{note}\n\n\nB,x,1,1,1,1,1,1,1,{note}\n");
+        let e = refusal(&t);
+        assert!(e.starts_with("t.csv, line 5, column 2"), "{e}");
+        let ok = read(&t.replace(",x,", ",2,")).unwrap();
+        assert_eq!(ok.iter().map(|s| s.line).collect::<Vec<_>>(), [2, 5]);
+    }
+}

@@ -179,6 +179,99 @@ impl Splitter {
     }
 }
 
+/// Splits the rows of one part into records, with editor line numbers.
+///
+/// A part without quotes is split here directly: a row ends at `\n` or `\r`, empty rows are
+/// skipped (as the CSV reader skips them), cells end at the delimiter. A part with quotes goes
+/// through the CSV reader, kept from part to part (building one costs more than splitting a
+/// few hundred rows), and its line numbers are moved past the blank lines the reader skipped
+/// before a record (it reports the line where its search began).
+pub(crate) struct PartRows {
+    quoted: csv::Reader<std::io::Cursor<Vec<u8>>>,
+    delimiter: u8,
+    plain: bool,
+    at: usize,
+    line: u64,
+}
+
+impl PartRows {
+    pub(crate) fn new(delimiter: u8) -> PartRows {
+        PartRows {
+            quoted: csv::ReaderBuilder::new()
+                .delimiter(delimiter)
+                .flexible(true)
+                .has_headers(false)
+                .from_reader(std::io::Cursor::new(Vec::new())),
+            delimiter,
+            plain: true,
+            at: 0,
+            line: 1,
+        }
+    }
+
+    /// Begin the part `text`, whose first byte lies on file line `line`.
+    pub(crate) fn start(&mut self, text: &[u8], line: u64) -> csv::Result<()> {
+        self.at = 0;
+        self.line = line;
+        self.plain = memchr::memchr(b'"', text).is_none();
+        if !self.plain {
+            let copy = self.quoted.get_mut().get_mut();
+            copy.clear();
+            copy.extend_from_slice(text);
+            // Seeking to the start clears the reader's end-of-input state.
+            self.quoted.seek(csv::Position::new())?;
+        }
+        Ok(())
+    }
+
+    /// The next record of the part `text` given to [`PartRows::start`]; `false` at its end.
+    pub(crate) fn read(&mut self, text: &[u8], rec: &mut csv::ByteRecord) -> csv::Result<bool> {
+        if !self.plain {
+            if !self.quoted.read_byte_record(rec)? {
+                return Ok(false);
+            }
+            let (byte, line) = rec.position().map_or((0, 1), |p| (p.byte(), p.line()));
+            let skipped = text
+                .get(byte as usize..)
+                .unwrap_or_default()
+                .iter()
+                .take_while(|b| matches!(b, b'\n' | b'\r'))
+                .filter(|b| **b == b'\n')
+                .count() as u64;
+            let mut pos = csv::Position::new();
+            pos.set_line(self.line + line - 1 + skipped);
+            rec.set_position(Some(pos));
+            return Ok(true);
+        }
+        loop {
+            let rest = &text[self.at.min(text.len())..];
+            if rest.is_empty() {
+                return Ok(false);
+            }
+            let (row, used, newline) = match memchr::memchr2(b'\n', b'\r', rest) {
+                Some(i) => (&rest[..i], i + 1, rest[i] == b'\n'),
+                None => (rest, rest.len(), false),
+            };
+            self.at += used;
+            let line = self.line;
+            if newline {
+                self.line += 1;
+            }
+            if row.is_empty() {
+                continue;
+            }
+            rec.clear();
+            for cell in row.split(|b| *b == self.delimiter) {
+                rec.push_field(cell);
+            }
+            let mut pos = csv::Position::new();
+            pos.set_line(line);
+            rec.set_position(Some(pos));
+            return Ok(true);
+        }
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -187,6 +280,54 @@ mod tests {
         let mut v = Vec::new();
         scan(text.as_bytes(), b',', |i, _| v.push(i));
         v
+    }
+
+    /// Records and editor lines of `text` through [`PartRows`].
+    fn records(text: &[u8], delimiter: u8) -> Vec<(Vec<Vec<u8>>, u64)> {
+        let mut rows = PartRows::new(delimiter);
+        rows.start(text, 1).unwrap();
+        let mut rec = csv::ByteRecord::new();
+        let mut out = Vec::new();
+        while rows.read(text, &mut rec).unwrap() {
+            let line = rec.position().unwrap().line();
+            out.push((rec.iter().map(<[u8]>::to_vec).collect(), line));
+        }
+        out
+    }
+
+    /// The same text with its first row quoted (`"a"` reads as `a`), so it takes the other path.
+    fn quoted_twin(text: &[u8], delimiter: u8) -> Vec<(Vec<Vec<u8>>, u64)> {
+        let mut t = b"\"".to_vec();
+        t.extend_from_slice(text);
+        let first_end = t[1..]
+            .iter()
+            .position(|b| *b == delimiter || *b == b'\n' || *b == b'\r')
+            .map_or(t.len(), |i| i + 1);
+        t.insert(first_end, b'"');
+        records(&t, delimiter)
+    }
+
+    #[test]
+    fn both_paths_give_the_same_records_and_editor_lines() {
+        for text in [
+            &b"a,b,c\nd,e\n\n\nf,,\n  ,\n"[..],
+            b"a;b\rc;d\re",
+            b"a\n\nx\n",
+            b"a,\n,,\n",
+            b"a\tb\n\tc\t\n",
+            b"last,row,without,end",
+        ] {
+            for delimiter in [b',', b';', b'\t'] {
+                assert_eq!(
+                    records(text, delimiter),
+                    quoted_twin(text, delimiter),
+                    "{text:?}"
+                );
+            }
+        }
+        // Editor lines after blank lines: "f,," is on line 5.
+        let r = records(b"a,b,c\nd,e\n\n\nf,,\n", b',');
+        assert_eq!(r.iter().map(|x| x.1).collect::<Vec<_>>(), [1, 2, 5]);
     }
 
     #[test]

@@ -1,5 +1,6 @@
 //! The streaming count-table reader.
 
+use super::blocks::{Block, PartRows, Splitter};
 use super::cell;
 use super::crlf::CrlfToLf;
 use super::ids::{id_key, IdRegistry};
@@ -69,7 +70,7 @@ pub struct CountReader {
     /// The data rows after the header, CRLF-normalised; taken when rows are first read.
     data: Option<Box<dyn Read + Send>>,
     /// The row splitter of the one-by-one path, built on first use.
-    csv: Option<csv::Reader<Box<dyn Read + Send>>>,
+    rows: Option<SerialRows>,
     /// File lines before the first data line (leading blank lines and the header).
     lines_before: u64,
     meta_names: Vec<String>,
@@ -77,6 +78,15 @@ pub struct CountReader {
     seen: IdRegistry,
     record: csv::ByteRecord,
     done: bool,
+}
+
+/// The one-by-one path: the same block cuts and part splitting as the parallel path, in turn.
+struct SerialRows {
+    splitter: Splitter,
+    block: Block,
+    part: usize,
+    rows: PartRows,
+    active: bool,
 }
 
 /// A reader taken apart for the parallel path: the validator, the raw data rows and the file
@@ -200,7 +210,7 @@ impl CountReader {
         let meta_names = layout.meta.iter().map(|i| headers[*i].clone()).collect();
         Ok(CountReader {
             data: Some(Box::new(CrlfToLf::new(buf))),
-            csv: None,
+            rows: None,
             lines_before,
             meta_names,
             parser: RowParser {
@@ -218,7 +228,7 @@ impl CountReader {
 
     /// Take the reader apart for the parallel path; `None` once rows were read one by one.
     pub(crate) fn into_raw_rows(self) -> std::result::Result<RawRows, Box<CountReader>> {
-        match (self.csv.is_none(), self.data.is_some()) {
+        match (self.rows.is_none(), self.data.is_some()) {
             (true, true) => {
                 let CountReader {
                     data,
@@ -277,31 +287,54 @@ impl CountReader {
         if self.done {
             return Ok(false);
         }
-        let lines_before = self.lines_before;
         let data = &mut self.data;
-        let delimiter = self.parser.dialect.delimiter;
-        let csv = self.csv.get_or_insert_with(|| {
-            csv::ReaderBuilder::new()
-                .delimiter(delimiter)
-                .flexible(true)
-                .has_headers(false)
-                .from_reader(data.take().unwrap_or_else(|| Box::new(std::io::empty())))
+        let (file, delimiter) = (&self.parser.file, self.parser.dialect.delimiter);
+        let first_line = self.lines_before + 1;
+        let rows = self.rows.get_or_insert_with(|| SerialRows {
+            splitter: Splitter::new(
+                data.take().unwrap_or_else(|| Box::new(std::io::empty())),
+                file,
+                first_line,
+            ),
+            block: Block::default(),
+            part: 0,
+            rows: PartRows::new(delimiter),
+            active: false,
         });
         loop {
-            match csv.read_byte_record(rec) {
-                Ok(false) => {
-                    self.done = true;
-                    return Ok(false);
+            if rows.active {
+                let p = rows.block.parts[rows.part];
+                match rows.rows.read(&rows.block.bytes[p.start..p.end], rec) {
+                    Ok(true) if is_blank(rec) => {}
+                    Ok(true) => return Ok(true),
+                    Ok(false) => {
+                        rows.active = false;
+                        rows.part += 1;
+                    }
+                    Err(e) => {
+                        self.done = true;
+                        return Err(csv_error(file, e));
+                    }
                 }
-                Ok(true) => {}
-                Err(e) => {
+            } else if let Some(p) = rows.block.parts.get(rows.part).copied() {
+                if let Err(e) = rows.rows.start(&rows.block.bytes[p.start..p.end], p.line) {
                     self.done = true;
-                    return Err(csv_error(&self.parser.file, e));
+                    return Err(csv_error(file, e));
                 }
-            }
-            shift_lines(rec, lines_before);
-            if !is_blank(rec) {
-                return Ok(true);
+                rows.active = true;
+            } else {
+                rows.part = 0;
+                match rows.splitter.fill(&mut rows.block, delimiter) {
+                    Ok(true) => {}
+                    Ok(false) => {
+                        self.done = true;
+                        return Ok(false);
+                    }
+                    Err(e) => {
+                        self.done = true;
+                        return Err(e);
+                    }
+                }
             }
         }
     }
@@ -327,16 +360,6 @@ impl CountReader {
 /// Rows of empty cells (spreadsheet trailers such as ";;;;") are skipped.
 pub(crate) fn is_blank(rec: &csv::ByteRecord) -> bool {
     rec.iter().all(|f| cell::trimmed(f).is_empty())
-}
-
-/// Move a record's line number on by `lines` (records split from part of a file count lines
-/// from 1).
-pub(crate) fn shift_lines(rec: &mut csv::ByteRecord, lines: u64) {
-    if let Some(p) = rec.position() {
-        let mut p = p.clone();
-        p.set_line(p.line() + lines);
-        rec.set_position(Some(p));
-    }
 }
 
 impl RowParser {

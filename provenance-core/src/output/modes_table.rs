@@ -1,6 +1,6 @@
 //! The `modes` table, as flat CSV and as the stable JSON interface.
 
-use super::number::{push_fixed, push_points, round, PERCENT_DECIMALS, RATIO_DECIMALS};
+use super::number::{round, Cells, PERCENT_DECIMALS, RATIO_DECIMALS};
 use super::push_csv_cell;
 use crate::counts::{Counting, Sample};
 use crate::diagram::Diagram;
@@ -84,15 +84,17 @@ impl ModesTable {
         buf.push(b'\n');
     }
 
-    fn push_mode(&self, buf: &mut Vec<u8>, m: Option<&DiagramMode>) {
+    fn push_mode(&self, c: &mut Cells<'_>, m: Option<&DiagramMode>) {
         let per_pole = if self.intervals { 6 } else { 2 };
         let Some(m) = m else {
-            buf.extend(std::iter::repeat_n(b',', 1 + 3 * per_pole));
+            for _ in 0..1 + 3 * per_pole {
+                c.byte(b',');
+            }
             return;
         };
-        buf.push(b',');
+        c.byte(b',');
         if let Some(n) = m.points {
-            push_points(buf, n);
+            c.points(n);
         }
         let sd = m.sd();
         let (wil, cp) = if self.intervals {
@@ -101,18 +103,18 @@ impl ModesTable {
             (None, None)
         };
         for i in 0..3 {
-            buf.push(b',');
-            push_fixed(buf, m.percent.part(i), PERCENT_DECIMALS);
-            buf.push(b',');
+            c.byte(b',');
+            c.fixed(m.percent.part(i), PERCENT_DECIMALS);
+            c.byte(b',');
             if let Some(sd) = sd {
-                push_fixed(buf, sd[i], PERCENT_DECIMALS);
+                c.fixed(sd[i], PERCENT_DECIMALS);
             }
             if self.intervals {
                 for iv in [wil.map(|w| w[i]), cp.map(|c| c[i])] {
                     for bound in [iv.map(|v| v.lower), iv.map(|v| v.upper)] {
-                        buf.push(b',');
+                        c.byte(b',');
                         if let Some(b) = bound {
-                            push_fixed(buf, b, PERCENT_DECIMALS);
+                            c.fixed(b, PERCENT_DECIMALS);
                         }
                     }
                 }
@@ -122,29 +124,29 @@ impl ModesTable {
 
     /// One sample's row, ending in a newline.
     pub fn push_row(&self, buf: &mut Vec<u8>, sample: &Sample, modes: &SampleModes) {
-        // One reservation covers the numbers of a row (about 250 bytes without intervals).
-        buf.reserve(if self.intervals { 1024 } else { 384 });
         push_csv_cell(buf, &sample.id);
         for v in &sample.metadata {
             buf.push(b',');
             push_csv_cell(buf, v);
         }
-        buf.push(b',');
-        push_points(buf, modes.framework_total);
-        buf.push(b',');
+        let mut c = Cells::new(buf);
+        c.byte(b',');
+        c.points(modes.framework_total);
+        c.byte(b',');
         if let Some(m) = modes.matrix_percent {
-            push_fixed(buf, m, PERCENT_DECIMALS);
+            c.fixed(m, PERCENT_DECIMALS);
         }
         for d in Diagram::ALL {
-            self.push_mode(buf, modes.get(d));
+            self.push_mode(&mut c, modes.get(d));
         }
         for (_, r) in modes.ratios.named() {
-            buf.push(b',');
+            c.byte(b',');
             if let Some(r) = r {
-                push_fixed(buf, r, RATIO_DECIMALS);
+                c.fixed(r, RATIO_DECIMALS);
             }
         }
-        buf.push(b',');
+        c.byte(b',');
+        c.finish();
         if modes.empty_framework() || sample.counting == Counting::Unknown {
             push_csv_cell(buf, &flags(modes, sample).join("; "));
         }
