@@ -554,3 +554,75 @@ pub(crate) fn json(c: &Computed, v: &Verdicts) -> serde_json::Value {
         "samples": samples,
     })
 }
+
+#[cfg(test)]
+mod tests {
+    use crate::classifier::NamedModel;
+    use crate::error::Error;
+    use crate::input::{CountReader, ReadOptions};
+    use crate::petrofacies::Table;
+    use crate::report::{build, ReportOptions};
+
+    fn table(text: &'static str) -> Table {
+        let r = CountReader::from_reader("t.csv", text.as_bytes(), ReadOptions::default()).unwrap();
+        Table::read(r).unwrap()
+    }
+
+    fn options(id: &str) -> ReportOptions {
+        ReportOptions {
+            model: Some(NamedModel::resolve(id, "2025-01-01").unwrap()),
+            ..Default::default()
+        }
+    }
+
+    fn file<'a>(files: &'a crate::report::ReportFiles, name: &str) -> &'a [u8] {
+        &files
+            .files()
+            .iter()
+            .find(|(p, _)| p.to_str() == Some(name))
+            .unwrap()
+            .1
+    }
+
+    #[test]
+    fn a_model_of_a_diagram_without_grains_is_refused_naming_it() {
+        // Invented: Qm, P and K are zero everywhere.
+        let t = table("sample,Qm,Qp,P,K,Lv,Ls,Lm\nA,0,40,0,0,30,20,10\n");
+        let e = build(&t, &options("dickinson-suczek1979-qmpk")).unwrap_err();
+        assert!(matches!(e, Error::Training { .. }), "{e:?}");
+        let s = e.to_string();
+        assert!(
+            s.starts_with("default model of dickinson-suczek1979-qmpk: the model reads the qmpk composition (Qm, P, K), but no sample of t.csv has grains in it")
+                && s.contains("(qfl, qmflt, qplvlsm, lmlvls, or framework)"),
+            "{s}"
+        );
+    }
+
+    #[test]
+    fn the_classifier_table_compares_fields_and_counts_disagreements() {
+        // Invented: a quartz-rich sand, a lithic-volcanic one, and one without grains.
+        let t = table(
+            "sample,Qm,Qp,P,K,Lv,Ls,Lm\nQ,380,10,5,0,0,0,5\nV,40,5,60,5,260,20,10\nE,0,0,0,0,0,0,0\n",
+        );
+        let files = build(&t, &options("dickinson1985-qfl")).unwrap();
+        let csv = String::from_utf8(file(&files, "classifier.csv").to_vec()).unwrap();
+        let lines: Vec<&str> = csv.lines().collect();
+        assert_eq!(lines.len(), 4);
+        assert!(lines[1].starts_with("Q,default model of dickinson1985-qfl,craton interior,"));
+        assert!(lines[1].ends_with(",,QFL field (dickinson1985-qfl),craton interior,true"));
+        assert!(lines[2].contains(",undissected arc,") && lines[2].ends_with(",true"));
+        // No grains: no probabilities, the reason, no placement and no verdict.
+        assert!(lines[3].ends_with(
+            ",the model's composition has no grains,QFL field (dickinson1985-qfl),no points,"
+        ));
+        let json: serde_json::Value = serde_json::from_slice(file(&files, "results.json")).unwrap();
+        let c = &json["classifier"];
+        assert_eq!(c["predicted"]["craton interior"], 1);
+        assert_eq!(c["predicted"]["undissected arc"], 1);
+        assert_eq!(c["disagreements"], serde_json::json!([]));
+        assert_eq!(c["samples"][2]["top"], serde_json::Value::Null);
+        let html = String::from_utf8(file(&files, "report.html").to_vec()).unwrap();
+        assert!(html.contains("1 sample(s) without probabilities"));
+        assert!(html.contains("agrees with the QFL field (dickinson1985-qfl) for every sample"));
+    }
+}
