@@ -152,6 +152,10 @@ pub struct ReportArgs {
     /// Default: every embedded set.
     #[arg(long = "fields", value_name = "ID|FILE")]
     pub fields: Vec<String>,
+    /// Add a classifier's probabilities to the report: a model file from `sandprov train`, or
+    /// the id of an embedded field set for its default model (a smooth version of those fields).
+    #[arg(long, value_name = "MODEL.json|ID")]
+    pub model: Option<String>,
     /// Print nothing but errors.
     #[arg(long, short = 'q')]
     pub quiet: bool,
@@ -168,6 +172,9 @@ pub struct DemoArgs {
         default_value = "sandprov-demo"
     )]
     pub output: PathBuf,
+    /// Add a classifier's probabilities, as `report --model` does.
+    #[arg(long, value_name = "MODEL.json|ID")]
+    pub model: Option<String>,
     /// Print nothing but errors.
     #[arg(long, short = 'q')]
     pub quiet: bool,

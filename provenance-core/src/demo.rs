@@ -37,5 +37,6 @@ pub fn report_options() -> ReportOptions {
         by: Some("formation".into()),
         height: Some("height_m".into()),
         fields: Vec::new(),
+        model: None,
     }
 }

@@ -1,29 +1,13 @@
 //! `sandprov setting`.
 
 use crate::cli::SettingArgs;
-use provenance_core::classifier::{default_model, Model};
+use provenance_core::classifier::NamedModel;
 use provenance_core::error::{Error, Result};
-use provenance_core::fields::{embedded, FieldSet};
+use provenance_core::fields::FieldSet;
 use provenance_core::membership::MembershipOptions;
 use provenance_core::output::Sink;
-use provenance_core::setting::{write_setting, Locator, NamedModel};
+use provenance_core::setting::{write_setting, Locator};
 use std::path::Path;
-
-/// A model file, or the default model of an embedded field set.
-fn model(spec: &str) -> Result<NamedModel> {
-    let path = Path::new(spec);
-    if !path.exists() && embedded::ids().contains(&spec) {
-        let set = FieldSet::load(spec)?;
-        return Ok(NamedModel {
-            name: format!("default model of {spec}"),
-            model: default_model(&set, &super::train::today())?,
-        });
-    }
-    Ok(NamedModel {
-        name: spec.to_string(),
-        model: Model::load(path)?,
-    })
-}
 
 pub fn run(a: SettingArgs) -> Result<()> {
     let mut locator = if a.fields.is_empty() {
@@ -42,7 +26,11 @@ pub fn run(a: SettingArgs) -> Result<()> {
             seed: a.seed,
             ..MembershipOptions::default()
         };
-        let classifier = a.model.as_deref().map(model).transpose()?;
+        let classifier = a
+            .model
+            .as_deref()
+            .map(|spec| NamedModel::resolve(spec, &super::train::today()))
+            .transpose()?;
         locator = locator.with_membership(options, classifier)?;
     }
     let format = a

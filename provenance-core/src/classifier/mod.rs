@@ -14,6 +14,8 @@
 //! - [`Model`]: the saved model (JSON), with its features, classes, penalty, training size,
 //!   data checksum and date.
 //! - [`default_model`]: a field set's default model, a smooth version of its fields.
+//! - [`NamedModel::resolve`]: a model as a command names it (a model file, or an embedded
+//!   field set's id for its default model), applied to samples by [`NamedModel::apply`].
 //!
 //! A classifier's probabilities describe its training data. They support, and do not replace,
 //! petrographic judgement.
@@ -44,6 +46,7 @@ mod features;
 mod fit;
 mod from_fields;
 mod model;
+mod named;
 mod newton;
 #[cfg(test)]
 mod tests;
@@ -57,4 +60,5 @@ pub use from_fields::{
     DEFAULT_MODEL_SEED, POINTS_PER_COMPOSITION,
 };
 pub use model::{utc_date, Features, Model, Training, MODEL_FORMAT, MODEL_NOTE, MODEL_VERSION};
+pub use named::{ClassifierResult, ModelSource, NamedModel};
 pub use training::TrainingSet;

@@ -7,12 +7,14 @@ use super::training::TrainingSet;
 use crate::counts::Sample;
 use crate::error::{Error, Location, Result};
 use serde::{Deserialize, Serialize};
+use sha2::{Digest, Sha256};
 use std::path::Path;
 
 /// The `format` value of every model file.
 pub const MODEL_FORMAT: &str = "sandprov-model";
-/// The model file version this build reads and writes.
-pub const MODEL_VERSION: u32 = 1;
+/// The model file version this build reads and writes. Version 2 added the top-level
+/// `checksum` key (see [`Model::checksum`]); version 1 files carry none and are refused.
+pub const MODEL_VERSION: u32 = 2;
 
 /// Where the training data came from.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -166,6 +168,7 @@ impl Model {
             self.l2
         );
         s += &format!("data checksum {}\n", self.training.checksum);
+        s += &format!("model checksum {}\n", self.checksum());
         s += &format!(
             "converged: largest gradient component {:.2e} (tolerance {:.0e}), training log-loss {:.4}\n",
             c.gradient_max, c.tolerance, c.training_log_loss
@@ -188,10 +191,46 @@ impl Model {
         Ok(self.probabilities_of_features(&z))
     }
 
-    /// The model as pretty-printed JSON.
-    pub fn to_json(&self) -> String {
+    /// SHA-256 of the model's content, `sha256:` and 64 hex digits: the compact JSON of every
+    /// key of the model file except `checksum`, in the order written (numbers in the shortest
+    /// form that reads back exactly). The model file stores it under `checksum`, and
+    /// [`Model::from_json`] refuses a file whose content no longer matches, so a model edited
+    /// by hand or damaged in transit is never applied. Layout and whitespace do not count.
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::classifier::{fit, FeatureSpace, FitOptions, Model, TrainingSet};
+    /// use provenance_core::counts::Counting;
+    /// use provenance_core::diagram::Diagram;
+    /// let mut t = TrainingSet::new(FeatureSpace::Diagram(Diagram::Qfl));
+    /// t.push_amounts("a", &[60.0, 30.0, 10.0], Counting::Counted).unwrap();
+    /// t.push_amounts("b", &[20.0, 30.0, 50.0], Counting::Counted).unwrap();
+    /// let mut m = Model::new(fit(&t, &FitOptions::default()).unwrap(), &t, "2025-01-01", "two sands", None);
+    /// let before = m.checksum();
+    /// assert!(before.starts_with("sha256:") && before.len() == 7 + 64);
+    /// m.intercepts[0] += 1e-9;
+    /// assert_ne!(m.checksum(), before);
+    /// ```
+    pub fn checksum(&self) -> String {
         // A struct of strings, numbers and vectors always serializes.
-        serde_json::to_string_pretty(self).unwrap_or_default() + "\n"
+        let text = serde_json::to_string(self).unwrap_or_default();
+        sha256_hex(text.as_bytes())
+    }
+
+    /// The model as pretty-printed JSON, its [`Model::checksum`] last.
+    pub fn to_json(&self) -> String {
+        #[derive(Serialize)]
+        struct Stored<'a> {
+            #[serde(flatten)]
+            model: &'a Model,
+            checksum: String,
+        }
+        let stored = Stored {
+            model: self,
+            checksum: self.checksum(),
+        };
+        // A struct of strings, numbers and vectors always serializes.
+        serde_json::to_string_pretty(&stored).unwrap_or_default() + "\n"
     }
 
     /// Write the model to `path`, whole or not at all.
@@ -253,12 +292,35 @@ impl Model {
                 ))
             }
         }
+        let mut value = value;
+        let stored = match value.as_object_mut().and_then(|m| m.remove("checksum")) {
+            Some(serde_json::Value::String(s)) => s,
+            other => return Err(bad(
+                "checksum",
+                match other {
+                    None => "missing".into(),
+                    Some(v) => format!("found {v}"),
+                },
+                "the \"sha256:…\" checksum of the model's content, as `sandprov train` writes it"
+                    .into(),
+            )),
+        };
         let model: Model = serde_json::from_value(value).map_err(|e| Error::Malformed {
             at: Location::new(file),
             message: format!("{e}"),
             expected: format!("the keys and types of {expected_file}"),
         })?;
         model.validate(file)?;
+        let computed = model.checksum();
+        if computed != stored {
+            return Err(bad(
+                "checksum",
+                format!("the model's content gives {computed}, the file says {stored}"),
+                "an unaltered model file (the content was changed after `sandprov train` wrote \
+                 it: retrain rather than edit a model)"
+                    .into(),
+            ));
+        }
         Ok(model)
     }
 
@@ -338,6 +400,15 @@ impl Model {
         }
         Ok(())
     }
+}
+
+/// `sha256:` and the 64 hex digits of the SHA-256 of `bytes`.
+pub(crate) fn sha256_hex(bytes: &[u8]) -> String {
+    let mut s = String::from("sha256:");
+    for b in Sha256::digest(bytes) {
+        s.push_str(&format!("{b:02x}"));
+    }
+    s
 }
 
 /// The date `YYYY-MM-DD` (UTC, proleptic Gregorian) of a Unix time in seconds, by the

@@ -251,3 +251,133 @@ fn running_out_of_iterations_is_refused() {
         "{e}"
     );
 }
+
+#[test]
+fn an_edited_model_file_fails_its_checksum() {
+    let m = model();
+    let text = m.to_json();
+    let v: serde_json::Value = serde_json::from_str(&text).unwrap();
+    assert_eq!(v["checksum"], m.checksum().as_str());
+    assert_eq!(v["version"], 2);
+    // Layout does not count: the same content, compact and with keys sorted, still loads.
+    assert_eq!(Model::from_json("m.json", &v.to_string()).unwrap(), m);
+    // One coefficient changed in the last digit that JSON keeps.
+    let mut w = v.clone();
+    let x = w["weights"][0][0].as_f64().unwrap();
+    w["weights"][0][0] = serde_json::json!(x * (1.0 + 1e-12));
+    let e = Model::from_json("m.json", &w.to_string())
+        .unwrap_err()
+        .to_string();
+    assert!(
+        e.starts_with("m.json: key \"checksum\": the model's content gives sha256:")
+            && e.contains("an unaltered model file"),
+        "{e}"
+    );
+    // A changed note counts too: the note travels into every output.
+    let mut w = v.clone();
+    w["note"] = serde_json::json!("trust me");
+    assert!(Model::from_json("m.json", &w.to_string()).is_err());
+    // No checksum (as a version-1 file had none) and a checksum of the wrong type.
+    let mut w = v.clone();
+    w.as_object_mut().unwrap().remove("checksum");
+    let e = Model::from_json("m.json", &w.to_string()).unwrap_err();
+    assert!(e.to_string().contains("key \"checksum\": missing"), "{e}");
+    let mut w = v.clone();
+    w["checksum"] = serde_json::json!(12);
+    let e = Model::from_json("m.json", &w.to_string()).unwrap_err();
+    assert!(e.to_string().contains("key \"checksum\": found 12"), "{e}");
+    // A file of version 1 is refused by its version, naming the key.
+    let mut w = v;
+    w["version"] = serde_json::json!(1);
+    let e = Model::from_json("m.json", &w.to_string()).unwrap_err();
+    assert!(
+        e.to_string().contains("key \"version\": found Some(1)"),
+        "{e}"
+    );
+}
+
+#[test]
+fn resolving_an_embedded_id_rebuilds_its_default_model() {
+    let named = NamedModel::resolve("dickinson1985-qmflt", "2025-02-03").unwrap();
+    let set = crate::fields::FieldSet::load("dickinson1985-qmflt").unwrap();
+    assert_eq!(named.model, default_model(&set, "2025-02-03").unwrap());
+    assert_eq!(named.name, "default model of dickinson1985-qmflt");
+    assert_eq!(
+        named.source,
+        ModelSource::FieldSet("dickinson1985-qmflt".into())
+    );
+    assert_eq!(named.file(), None);
+    assert_eq!(named.model.training.date, "2025-02-03");
+    // The classes are the set's field names, sorted.
+    let mut names: Vec<String> = set.fields.iter().map(|f| f.name.clone()).collect();
+    names.sort();
+    assert_eq!(named.model.classes, names);
+}
+
+#[test]
+fn resolving_a_file_loads_and_checks_it() {
+    let dir = tempfile::tempdir().unwrap();
+    let path = dir.path().join("m.json");
+    let m = model();
+    m.save(&path).unwrap();
+    let spec = path.to_str().unwrap();
+    let named = NamedModel::resolve(spec, "2030-01-01").unwrap();
+    assert_eq!(named.model, m);
+    assert_eq!(named.name, spec);
+    assert_eq!(named.file(), Some(path.as_path()));
+    // The date is only for default models: a file keeps its own.
+    assert_eq!(named.model.training.date, "2025-03-04");
+
+    let broken = dir.path().join("broken.json");
+    std::fs::write(&broken, "{\"format\": \"sandprov-model\", ").unwrap();
+    let e = NamedModel::resolve(broken.to_str().unwrap(), "2030-01-01")
+        .unwrap_err()
+        .to_string();
+    assert!(
+        e.contains("broken.json, line 1") && e.contains("not valid JSON"),
+        "{e}"
+    );
+
+    let edited = dir.path().join("edited.json");
+    std::fs::write(&edited, m.to_json().replace("\"invented\"", "\"other\"")).unwrap();
+    let e = NamedModel::resolve(edited.to_str().unwrap(), "2030-01-01").unwrap_err();
+    assert_eq!(e.kind(), crate::error::ErrorKind::Input);
+    assert!(
+        e.to_string().contains("edited.json: key \"checksum\""),
+        "{e}"
+    );
+
+    let missing = dir.path().join("nope.json");
+    let e = NamedModel::resolve(missing.to_str().unwrap(), "2030-01-01").unwrap_err();
+    assert_eq!(e.kind(), crate::error::ErrorKind::Io);
+    assert!(e.to_string().contains("nope.json"), "{e}");
+}
+
+#[test]
+fn a_verdict_without_points_names_its_reason() {
+    use crate::counts::{Framework, Sample};
+    let named = NamedModel {
+        name: "m".into(),
+        model: model(),
+        source: ModelSource::File("m.json".into()),
+    };
+    let r = named.apply(&Sample::counted("e", Framework::default()));
+    assert_eq!(r.probabilities, None);
+    assert_eq!(r.top(), None);
+    assert_eq!(r.note, Some("the model's composition has no grains"));
+    let s = Sample::counted(
+        "q",
+        Framework {
+            qm: 300.0,
+            p: 30.0,
+            lv: 20.0,
+            ..Default::default()
+        },
+    );
+    let r = named.apply(&s);
+    let p = r.probabilities.clone().unwrap();
+    assert!((p.iter().sum::<f64>() - 1.0).abs() < 1e-12);
+    let (i, top) = r.top().unwrap();
+    assert!(p.iter().all(|v| *v <= top));
+    assert_eq!(p[i], top);
+}

@@ -1,6 +1,12 @@
 //! The one-page report: every result for a count table as a self-contained HTML page (inline
 //! CSS and SVG, no external requests), with the machine-readable tables beside it.
+//!
+//! With a classifier ([`ReportOptions::model`]) the report adds its most likely class and all
+//! class probabilities per sample, compared with the field placement, and the model's method
+//! note; `classifier.csv` holds the same per sample, and `setting.csv` and `results.json`
+//! carry the probabilities as `sandprov setting --model` writes them.
 
+mod classifier;
 mod dir;
 mod figures;
 pub mod html;
@@ -8,6 +14,7 @@ mod sections;
 
 pub use dir::{ReportFiles, MARKER};
 
+use crate::classifier::NamedModel;
 use crate::error::{Error, Result};
 use crate::fields::FieldSet;
 use crate::modes::SampleModes;
@@ -22,8 +29,15 @@ use crate::setting::{Locator, SampleSetting, SettingJson, SettingTable};
 ///
 /// # Example
 /// ```
+/// use provenance_core::classifier::NamedModel;
 /// let o = provenance_core::report::ReportOptions { by: Some("formation".into()), ..Default::default() };
-/// assert!(o.height.is_none());
+/// assert!(o.height.is_none() && o.model.is_none());
+/// let with_model = provenance_core::report::ReportOptions {
+///     model: Some(NamedModel::resolve("dickinson1985-qfl", "2025-01-01")?),
+///     ..o
+/// };
+/// assert_eq!(with_model.model.unwrap().model.classes.len(), 7);
+/// # Ok::<(), provenance_core::error::Error>(())
 /// ```
 #[derive(Debug, Clone, Default)]
 pub struct ReportOptions {
@@ -33,6 +47,9 @@ pub struct ReportOptions {
     pub height: Option<String>,
     /// Field sets (ids or files), at most one per diagram; empty: every embedded set.
     pub fields: Vec<String>,
+    /// A classifier to apply to every sample (see [`NamedModel::resolve`]). Its composition
+    /// must have grains in at least one sample, or [`build`] refuses it.
+    pub model: Option<NamedModel>,
 }
 
 /// Everything computed once for the report.
@@ -56,8 +73,8 @@ impl Computed<'_> {
 }
 
 /// The field sets a report uses: the named ones, or every embedded set; membership under
-/// counting error is always computed, with the default options.
-fn locator(specs: &[String]) -> Result<Locator> {
+/// counting error is always computed, with the default options, and the classifier if any.
+fn locator(specs: &[String], model: Option<&NamedModel>) -> Result<Locator> {
     let l = if specs.is_empty() {
         Locator::embedded()?
     } else {
@@ -68,11 +85,18 @@ fn locator(specs: &[String]) -> Result<Locator> {
                 .collect::<Result<_>>()?,
         )?
     };
-    l.with_membership(crate::membership::MembershipOptions::default(), None)
+    l.with_membership(
+        crate::membership::MembershipOptions::default(),
+        model.cloned(),
+    )
 }
 
 /// Build the report's files: `report.html`, `modes.csv`, `names.csv`, `setting.csv`,
-/// `results.json`.
+/// `results.json`, and `classifier.csv` with a model.
+///
+/// # Errors
+/// Besides the table's own refusals, [`Error::Training`] naming the model when its
+/// composition has no grains in any sample.
 ///
 /// # Example
 /// ```
@@ -113,7 +137,7 @@ pub fn build(data: &Table, options: &ReportOptions) -> Result<ReportFiles> {
         }
     };
     let schemes = SchemeSet::standard();
-    let locator = locator(&options.fields)?;
+    let locator = locator(&options.fields, options.model.as_ref())?;
     let c = Computed {
         data,
         modes: data.samples.iter().map(SampleModes::of).collect(),
@@ -125,11 +149,13 @@ pub fn build(data: &Table, options: &ReportOptions) -> Result<ReportFiles> {
         schemes,
         locator,
     };
+    classifier::check(&c)?;
+    let verdicts = classifier::verdicts(&c);
     let figs = figures::figures(&c, options.by.as_deref())?;
     let mut files = ReportFiles::default();
     files.add(
         "report.html",
-        sections::page(&c, options, &figs).into_bytes(),
+        sections::page(&c, options, &figs, verdicts.as_ref()).into_bytes(),
     );
     for f in &figs {
         files.add(format!("figures/{}", f.file), f.svg.clone().into_bytes());
@@ -137,7 +163,10 @@ pub fn build(data: &Table, options: &ReportOptions) -> Result<ReportFiles> {
     files.add("modes.csv", modes_csv(&c));
     files.add("names.csv", names_csv(&c));
     files.add("setting.csv", setting_csv(&c));
-    files.add("results.json", results_json(&c)?);
+    if let Some(v) = &verdicts {
+        files.add("classifier.csv", classifier::csv(&c, v));
+    }
+    files.add("results.json", results_json(&c, verdicts.as_ref())?);
     Ok(files)
 }
 
@@ -180,7 +209,7 @@ fn setting_csv(c: &Computed) -> Vec<u8> {
     buf
 }
 
-fn results_json(c: &Computed) -> Result<Vec<u8>> {
+fn results_json(c: &Computed, verdicts: Option<&classifier::Verdicts>) -> Result<Vec<u8>> {
     let modes: Vec<ModesJson> = c
         .data
         .samples
@@ -232,6 +261,7 @@ fn results_json(c: &Computed) -> Result<Vec<u8>> {
             serde_json::from_slice::<serde_json::Value>(&crate::output::changes_table::changes_json(ch))
                 .unwrap_or(serde_json::Value::Null)
         }),
+        "classifier": verdicts.map(|v| classifier::json(c, v)),
     });
     serde_json::to_vec_pretty(&doc).map_err(|e| Error::Usage {
         message: format!("results.json could not be serialised: {e}"),

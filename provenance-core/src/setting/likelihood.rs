@@ -9,7 +9,7 @@
 //! then `qfl_qmflt_disagree`, then with a model `classifier_model`, `classifier_top`,
 //! `classifier_top_p` and `classifier_p_{class}`.
 
-use crate::classifier::{FeatureProblem, Model};
+pub use crate::classifier::{ClassifierResult, NamedModel};
 use crate::counts::Sample;
 use crate::diagram::Diagram;
 use crate::error::Result;
@@ -20,7 +20,7 @@ use crate::membership::{
 };
 use crate::modes::DiagramMode;
 use crate::output::number::{push_fixed, round, RATIO_DECIMALS};
-use crate::output::{column_slug, push_csv_cell, MembershipColumns, MembershipJson};
+use crate::output::{push_csv_cell, MembershipColumns, MembershipJson};
 use serde::ser::{SerializeMap, Serializer};
 use serde::Serialize;
 
@@ -32,15 +32,6 @@ pub const POINTS_UNKNOWN: &str =
 pub const SUMMARY_NOTE: &str = "Group probabilities add up the field memberships of each \
 diagram. The diagrams are drawn from the same grains, so their agreement is not independent \
 evidence.";
-
-/// A classifier to apply to every sample, with the name it is reported under.
-#[derive(Debug, Clone)]
-pub struct NamedModel {
-    /// The model file or default-model id, as given.
-    pub name: String,
-    /// The model.
-    pub model: Model,
-}
 
 /// How likelihoods are computed for a [`super::Locator`]'s field sets.
 #[derive(Debug, Clone)]
@@ -59,15 +50,6 @@ pub struct DiagramLikelihood {
     /// The 95% logistic-normal confidence region of the composition.
     pub region: Option<ConfidenceRegion>,
     /// Why membership is unavailable although the diagram has points.
-    pub note: Option<&'static str>,
-}
-
-/// The classifier's verdict on one sample.
-#[derive(Debug, Clone, PartialEq)]
-pub struct ClassifierResult {
-    /// Class probabilities in the model's class order; `None` with `note`.
-    pub probabilities: Option<Vec<f64>>,
-    /// Why there are none.
     pub note: Option<&'static str>,
 }
 
@@ -157,24 +139,7 @@ impl Likelihoods {
             };
             diagrams.push(d);
         }
-        let classifier =
-            self.classifier.as_ref().map(|c| {
-                match c.model.probabilities(sample) {
-            Ok(p) => ClassifierResult {
-                probabilities: Some(p),
-                note: None,
-            },
-            Err(problem) => ClassifierResult {
-                probabilities: None,
-                note: Some(match problem {
-                    FeatureProblem::NoPoints => "the model's composition has no grains",
-                    FeatureProblem::ZeroWithoutPoints => {
-                        "a part is zero and the points are unknown, so the zero cannot be replaced"
-                    }
-                }),
-            },
-        }
-            });
+        let classifier = self.classifier.as_ref().map(|c| c.apply(sample));
         SampleLikelihood {
             diagrams,
             summary: ProvenanceSummary::of(&groups),
@@ -235,13 +200,7 @@ impl Likelihoods {
         }
         h.push("qfl_qmflt_disagree".into());
         if let Some(c) = &self.classifier {
-            h.extend(["classifier_model", "classifier_top", "classifier_top_p"].map(String::from));
-            h.extend(
-                c.model
-                    .classes
-                    .iter()
-                    .map(|k| format!("classifier_p_{}", column_slug(k))),
-            );
+            h.extend(c.csv_columns());
         }
         h
     }
@@ -264,34 +223,9 @@ impl Likelihoods {
             buf.extend_from_slice(if d { b"true" } else { b"false" });
         }
         if let (Some(c), Some(r)) = (&self.classifier, &l.classifier) {
-            buf.push(b',');
-            push_csv_cell(buf, &c.name);
-            match &r.probabilities {
-                Some(p) => {
-                    let best = top_index(p);
-                    buf.push(b',');
-                    push_csv_cell(buf, &c.model.classes[best]);
-                    buf.push(b',');
-                    push_fixed(buf, p[best], RATIO_DECIMALS);
-                    for v in p {
-                        buf.push(b',');
-                        push_fixed(buf, *v, RATIO_DECIMALS);
-                    }
-                }
-                None => buf.extend(std::iter::repeat_n(b',', 2 + c.model.classes.len())),
-            }
+            c.push_csv_cells(buf, r);
         }
     }
-}
-
-fn top_index(p: &[f64]) -> usize {
-    let mut best = 0;
-    for (i, v) in p.iter().enumerate() {
-        if *v > p[best] {
-            best = i;
-        }
-    }
-    best
 }
 
 struct SummaryJson<'a>(&'a ProvenanceSummary);
