@@ -102,8 +102,8 @@ impl NamedModel {
     /// assert_eq!(d.model.classes.len(), 7);
     /// // A model file.
     /// let mut t = TrainingSet::new(FeatureSpace::Diagram(Diagram::Qfl));
-    /// t.push_amounts("quartzose", &[80.0, 10.0, 10.0], Counting::Counted)?;
-    /// t.push_amounts("lithic", &[20.0, 20.0, 60.0], Counting::Counted)?;
+    /// t.push_amounts("quartzose", &[80.0, 10.0, 10.0], Counting::Counted).unwrap();
+    /// t.push_amounts("lithic", &[20.0, 20.0, 60.0], Counting::Counted).unwrap();
     /// let m = Model::new(fit(&t, &FitOptions::default())?, &t, "2025-01-01", "two invented sands", None);
     /// let dir = tempfile::tempdir().unwrap();
     /// let path = dir.path().join("m.json");
