@@ -53,6 +53,22 @@ fn bom_crlf_and_trailing_blank_lines_are_accepted() {
 }
 
 #[test]
+fn crlf_files_report_editor_lines_and_keep_line_breaks_inside_quoted_cells() {
+    for note in ["plain", "\"two\r\nlines\""] {
+        let t = format!("{HEAD},notes\r\nA,1,1,1,1,1,1,1,1,{note}\r\n\r\nB,x,1,1,1,1,1,1,1,n\r\n");
+        let bad = if note == "plain" { 4 } else { 5 };
+        let e = refusal(&t);
+        assert!(
+            e.starts_with(&format!("t.csv, line {bad}, column 2")),
+            "{e}"
+        );
+        let ok = read(&t.replace(",x,", ",2,")).unwrap();
+        assert_eq!(ok[1].line, bad);
+        assert_eq!(ok[0].metadata[0], note.trim_matches('"'));
+    }
+}
+
+#[test]
 fn spreadsheet_trailer_rows_of_empty_cells_are_skipped() {
     let s = read("sample;Qm;Qp;P;K;Lv;Ls;Lm\nA;1;2;3;4;5;6;7\n;;;;;;;\n;;;;;;;\n").unwrap();
     assert_eq!(s.len(), 1);

@@ -8,7 +8,6 @@
 
 pub(crate) mod blocks;
 mod cell;
-mod crlf;
 pub(crate) mod ids;
 mod layout;
 pub mod mapping;

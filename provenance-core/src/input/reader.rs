@@ -2,7 +2,6 @@
 
 use super::blocks::{Block, PartRows, Splitter};
 use super::cell;
-use super::crlf::CrlfToLf;
 use super::ids::{id_key, IdRegistry};
 use super::layout::{resolve, Layout, Role};
 use super::mapping::Mapping;
@@ -67,7 +66,7 @@ pub struct Dialect {
 /// assert!(r.next().is_none());
 /// ```
 pub struct CountReader {
-    /// The data rows after the header, CRLF-normalised; taken when rows are first read.
+    /// The data rows after the header; taken when rows are first read.
     data: Option<Box<dyn Read + Send>>,
     /// The row splitter of the one-by-one path, built on first use.
     rows: Option<SerialRows>,
@@ -209,7 +208,7 @@ impl CountReader {
         let layout = resolve(file, &headers, options.mapping.as_ref(), options.percent)?;
         let meta_names = layout.meta.iter().map(|i| headers[*i].clone()).collect();
         Ok(CountReader {
-            data: Some(Box::new(CrlfToLf::new(buf))),
+            data: Some(Box::new(buf)),
             rows: None,
             lines_before,
             meta_names,
