@@ -48,18 +48,37 @@ pub fn push_fixed(buf: &mut Vec<u8>, x: f64, decimals: u32) {
     let d = decimals.min(6) as usize;
     // Truncating x·10ᵈ + ½ rounds half away from zero for the non-negative magnitude.
     let scaled = x.abs() * POW10[d] + 0.5;
-    // Fast path: percentages and ratios written with 2 or 4 decimals come from a table.
-    if x >= 0.0 && scaled < (SMALL_MAX + 1) as f64 && (d == 2 || d == 4) {
-        let t = if d == 2 { &TWO } else { &FOUR };
-        let e = &t[scaled as usize];
-        // A fixed 8-byte copy (one move) then a truncate beats a variable-length copy; the
-        // last byte of each entry holds the text's length.
-        let keep = buf.len() + e[7] as usize;
-        buf.extend_from_slice(e);
-        buf.truncate(keep);
+    if let Some(e) = table_entry(x, d, scaled) {
+        push_entry(buf, e);
         return;
     }
     push_general(buf, x, d, scaled);
+}
+
+/// Percentages and ratios written with 2 or 4 decimals come from a table.
+#[inline]
+fn table_entry(x: f64, d: usize, scaled: f64) -> Option<&'static [u8; 8]> {
+    if x >= 0.0 && scaled < (SMALL_MAX + 1) as f64 && (d == 2 || d == 4) {
+        let t = if d == 2 { &TWO } else { &FOUR };
+        Some(&t[scaled as usize])
+    } else {
+        None
+    }
+}
+
+/// Whole numbers of points up to [`SMALL_MAX`] come from a table.
+#[inline]
+fn whole_entry(n: f64) -> Option<&'static [u8; 8]> {
+    (n >= 0.0 && n <= SMALL_MAX as f64 && (n as usize) as f64 == n).then(|| &WHOLE[n as usize])
+}
+
+/// A fixed 8-byte copy (one move) then a truncate beats a variable-length copy; the last byte
+/// of each entry holds the text's length.
+#[inline]
+fn push_entry(buf: &mut Vec<u8>, e: &[u8; 8]) {
+    let keep = buf.len() + e[7] as usize;
+    buf.extend_from_slice(e);
+    buf.truncate(keep);
 }
 
 /// The general path of [`push_fixed`]: any magnitude and sign.
@@ -186,11 +205,8 @@ const DIGIT_PAIRS: &[u8; 200] = b"\
 /// ```
 #[inline]
 pub fn push_points(buf: &mut Vec<u8>, n: f64) {
-    if n >= 0.0 && n <= SMALL_MAX as f64 && (n as usize) as f64 == n {
-        let e = &WHOLE[n as usize];
-        let keep = buf.len() + e[7] as usize;
-        buf.extend_from_slice(e);
-        buf.truncate(keep);
+    if let Some(e) = whole_entry(n) {
+        push_entry(buf, e);
     } else if n.fract() == 0.0 && (0.0..1e18).contains(&n) {
         push_u64(buf, n as u64);
     } else {
@@ -262,21 +278,18 @@ impl<'a> Cells<'a> {
     pub fn fixed(&mut self, x: f64, decimals: u32) {
         let d = decimals.min(6) as usize;
         let scaled = x.abs() * POW10[d] + 0.5;
-        if x >= 0.0 && scaled < (SMALL_MAX + 1) as f64 && (d == 2 || d == 4) {
-            let t = if d == 2 { &TWO } else { &FOUR };
-            self.entry(&t[scaled as usize]);
-        } else {
-            self.general(|b| push_fixed(b, x, decimals));
+        match table_entry(x, d, scaled) {
+            Some(e) => self.entry(e),
+            None => self.general(|b| push_fixed(b, x, decimals)),
         }
     }
 
     /// A number of points, as [`push_points`].
     #[inline]
     pub fn points(&mut self, n: f64) {
-        if n >= 0.0 && n <= SMALL_MAX as f64 && (n as usize) as f64 == n {
-            self.entry(&WHOLE[n as usize]);
-        } else {
-            self.general(|b| push_points(b, n));
+        match whole_entry(n) {
+            Some(e) => self.entry(e),
+            None => self.general(|b| push_points(b, n)),
         }
     }
 
