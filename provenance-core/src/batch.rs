@@ -7,7 +7,9 @@ use crate::counts::Sample;
 use crate::error::{Error, Result};
 use crate::input::blocks::{Block, Part, PartRows, Splitter};
 use crate::input::ids::{id_key, IdRegistry};
-use crate::input::reader::{csv_error, is_blank, RawRows, RowParser};
+use crate::input::reader::{
+    csv_error, earliest_refusal, id_store_error, is_blank, RawRows, RowParser,
+};
 use crate::input::CountReader;
 use crate::modes::SampleModes;
 use crate::output::{Format, ModesJson, ModesTable};
@@ -257,8 +259,11 @@ where
             for out in &mut outs {
                 let mut id_start = 0;
                 for &(key, line, id_end) in &out.ids {
-                    if let Some(first) = seen.insert(key, line) {
-                        return Err(parser.duplicate(&out.id_text[id_start..id_end], line, first));
+                    let id = &out.id_text[id_start..id_end];
+                    match seen.insert(key, id, line) {
+                        Ok(None) => {}
+                        Ok(Some(repeat)) => return Err(parser.duplicate(&repeat)),
+                        Err(e) => return Err(id_store_error(e)),
                     }
                     id_start = id_end;
                 }
@@ -266,15 +271,20 @@ where
                     writer.rows(&out.bytes, out.rows)?;
                 }
                 if let Some(e) = out.refusal.take() {
-                    return Err(e);
+                    return Err(earliest_refusal(&mut seen, parser, e));
                 }
             }
             if let Some(e) = refusal {
-                return Err(e);
+                return Err(earliest_refusal(&mut seen, parser, e));
             }
             let _ = spare_outs.send(outs);
         }
-        Ok(())
+        // A repeat across ids written out to disk shows only at the end.
+        match seen.repeat_before(u64::MAX) {
+            Ok(None) => Ok(()),
+            Ok(Some(repeat)) => Err(parser.duplicate(&repeat)),
+            Err(e) => Err(id_store_error(e)),
+        }
     })
 }
 
@@ -428,6 +438,59 @@ mod tests {
         t = t.replace("S10,10,", "S10,x,").replace("S13,", "S2,");
         let e = run(t).unwrap_err().to_string();
         assert!(e.starts_with("t.csv, line 12, column 2"), "{e}");
+    }
+
+    /// Run `f` with id segments of 100 ids, so that a table of [`MANY`] rows writes ids out.
+    fn with_small_id_segments<T>(f: impl FnOnce() -> T) -> T {
+        use crate::input::ids::{Limits, TEST_LIMITS};
+        let small = Limits {
+            entries: 100,
+            text_bytes: 4096,
+            fan_in: 3,
+        };
+        TEST_LIMITS.with(|l| l.set(Some(small)));
+        let out = f();
+        TEST_LIMITS.with(|l| l.set(None));
+        out
+    }
+
+    #[test]
+    fn a_repeat_of_an_id_written_out_long_before_is_refused_at_the_end() {
+        let mut t = table(MANY);
+        t.push_str("S5,1,1,1,1,1,1,1\n");
+        let expected = format!(
+            "t.csv, line {}, column 1 (\"sample\"): sample id \"S5\" was already used on line 7",
+            MANY + 2
+        );
+        let e = with_small_id_segments(|| run(t.clone()))
+            .unwrap_err()
+            .to_string();
+        assert!(e.starts_with(&expected), "{e}");
+        // The one-by-one reader finds it as well, as its last item.
+        let last = with_small_id_segments(|| {
+            let bytes = std::io::Cursor::new(t.clone().into_bytes());
+            let r = CountReader::from_reader("t.csv", bytes, ReadOptions::default())?;
+            let last = r.last();
+            match last {
+                Some(Err(e)) => Err(e),
+                _ => Ok(()),
+            }
+        });
+        assert!(last.unwrap_err().to_string().starts_with(&expected));
+        assert_eq!(with_small_id_segments(|| run(table(MANY))).unwrap(), MANY);
+    }
+
+    #[test]
+    fn a_repeat_on_disk_wins_over_a_later_bad_cell() {
+        // S3 (line 5) comes back on line 1002, long written out; the bad cell is later.
+        let mut t = table(MANY);
+        t = t.replace("\nS1000,", "\nS3,");
+        t = t.replace(&format!("S{},10,", MANY - 3), &format!("S{},x,", MANY - 3));
+        let e = with_small_id_segments(|| run(t)).unwrap_err().to_string();
+        assert!(
+            e.starts_with("t.csv, line 1002, column 1 (\"sample\"): sample id \"S3\" was already used on line 5"),
+            "{e}"
+        );
     }
 
     #[test]

@@ -278,6 +278,19 @@ impl Error {
             _ => ErrorKind::Input,
         }
     }
+
+    /// The line of a refusal that sits in one row of a table, if it does.
+    pub(crate) fn row_line(&self) -> Option<u64> {
+        match self {
+            Error::InvalidValue { at, .. }
+            | Error::MissingId { at, .. }
+            | Error::DuplicateId { at, .. }
+            | Error::RaggedRow { at, .. }
+            | Error::NotText { at, .. }
+            | Error::Malformed { at, .. } => at.line,
+            _ => None,
+        }
+    }
 }
 
 /// Result with sandprov's [`Error`].

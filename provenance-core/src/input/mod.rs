@@ -8,6 +8,7 @@
 
 pub(crate) mod blocks;
 mod cell;
+mod id_runs;
 pub(crate) mod ids;
 mod layout;
 pub mod mapping;

@@ -2,7 +2,7 @@
 
 use super::blocks::{Block, PartRows, Splitter};
 use super::cell;
-use super::ids::{id_key, IdRegistry};
+use super::ids::{id_key, IdRegistry, Repeat};
 use super::layout::{resolve, Layout, Role};
 use super::mapping::Mapping;
 use crate::counts::{Counting, Framework, NonFramework, Sample};
@@ -77,6 +77,8 @@ pub struct CountReader {
     seen: IdRegistry,
     record: csv::ByteRecord,
     done: bool,
+    /// The end (or a refusal) was reported: the iterator is finished.
+    ended: bool,
 }
 
 /// The one-by-one path: the same block cuts and part splitting as the parallel path, in turn.
@@ -222,6 +224,7 @@ impl CountReader {
             seen: IdRegistry::default(),
             record: csv::ByteRecord::new(),
             done: false,
+            ended: false,
         })
     }
 
@@ -349,12 +352,45 @@ impl CountReader {
             return Ok(());
         }
         let line = line_of(rec);
-        match self.seen.insert(id_key(id), line) {
-            Some(first) => Err(self.parser.duplicate(id, line, first)),
-            None => Ok(()),
+        match self.seen.insert(id_key(id), id, line) {
+            Ok(Some(repeat)) => Err(self.parser.duplicate(&repeat)),
+            Ok(None) => Ok(()),
+            Err(e) => Err(id_store_error(e)),
         }
     }
+
+    /// A refusal of the table as it stands, made the earliest one (see [`earliest_refusal`]).
+    fn earliest(&mut self, e: Error) -> Error {
+        earliest_refusal(&mut self.seen, &self.parser, e)
+    }
 }
+
+/// A refusal of the table as it stands: an id repeated before `e`'s line wins over `e`, so
+/// the earliest problem is named whatever the order rows were checked in.
+pub(crate) fn earliest_refusal(seen: &mut IdRegistry, parser: &RowParser, e: Error) -> Error {
+    if matches!(e, Error::DuplicateId { .. }) {
+        // Already the earliest: the registry looked before answering.
+        return e;
+    }
+    match seen.repeat_before(e.row_line().unwrap_or(u64::MAX)) {
+        Ok(Some(repeat)) => parser.duplicate(&repeat),
+        Ok(None) => e,
+        Err(io) => id_store_error(io),
+    }
+}
+
+/// The refusal when the temporary files holding sample ids fail.
+pub(crate) fn id_store_error(source: std::io::Error) -> Error {
+    Error::Write {
+        path: format!(
+            "a temporary file of sample ids in {}",
+            std::env::temp_dir().display()
+        ),
+        source,
+    }
+}
+
+impl CountReader {}
 
 /// Rows of empty cells (spreadsheet trailers such as ";;;;") are skipped.
 pub(crate) fn is_blank(rec: &csv::ByteRecord) -> bool {
@@ -372,12 +408,12 @@ impl RowParser {
         self.dialect.delimiter
     }
 
-    /// The refusal of an id first used on `first`, used again on `line`.
-    pub(crate) fn duplicate(&self, id: &[u8], line: u64, first: u64) -> Error {
+    /// The refusal of an id used a second time.
+    pub(crate) fn duplicate(&self, repeat: &Repeat) -> Error {
         Error::DuplicateId {
-            at: self.location(line, self.layout.id),
-            id: String::from_utf8_lossy(id).into_owned(),
-            first_line: first,
+            at: self.location(repeat.line, self.layout.id),
+            id: String::from_utf8_lossy(&repeat.id).into_owned(),
+            first_line: repeat.first,
         }
     }
 
@@ -516,8 +552,19 @@ impl Iterator for CountReader {
 
     fn next(&mut self) -> Option<Result<Sample>> {
         let mut rec = std::mem::take(&mut self.record);
+        if self.ended {
+            return None;
+        }
         let r = match self.read_raw(&mut rec) {
-            Ok(false) => None,
+            Ok(false) => {
+                // A repeat across ids written out to disk shows only now.
+                self.ended = true;
+                match self.seen.repeat_before(u64::MAX) {
+                    Ok(None) => None,
+                    Ok(Some(repeat)) => Some(Err(self.parser.duplicate(&repeat))),
+                    Err(e) => Some(Err(id_store_error(e))),
+                }
+            }
             Ok(true) => Some(
                 self.check_unique(&rec)
                     .and_then(|()| self.parser.parse_record(&rec)),
@@ -525,9 +572,13 @@ impl Iterator for CountReader {
             Err(e) => Some(Err(e)),
         };
         self.record = rec;
-        if matches!(r, Some(Err(_))) {
-            self.done = true;
+        match r {
+            Some(Err(e)) => {
+                self.done = true;
+                self.ended = true;
+                Some(Err(self.earliest(e)))
+            }
+            r => r,
         }
-        r
     }
 }
