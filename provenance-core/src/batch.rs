@@ -494,6 +494,42 @@ mod tests {
     }
 
     #[test]
+    fn a_reader_already_started_goes_on_one_row_at_a_time() {
+        // The fallback path: rows were read one by one before the batch took the reader, so
+        // it carries on from there and writes what the parallel path writes for those rows.
+        let open = |t: &str| {
+            let bytes = std::io::Cursor::new(t.as_bytes().to_vec());
+            CountReader::from_reader("t.csv", bytes, ReadOptions::default()).unwrap()
+        };
+        let t = table(MANY);
+        let mut started = open(&t);
+        let first = started.next().unwrap().unwrap();
+        assert_eq!(first.id, "S0");
+        let mut rest = Vec::new();
+        let n = write_modes(started, &mut rest, "out", ModesOptions::default()).unwrap();
+        assert_eq!(n, MANY - 1);
+        let mut whole = Vec::new();
+        write_modes(open(&t), &mut whole, "out", ModesOptions::default()).unwrap();
+        let header_and_first = whole
+            .iter()
+            .enumerate()
+            .filter(|(_, b)| **b == b'\n')
+            .nth(1);
+        let (cut, _) = header_and_first.unwrap();
+        let header_end = whole.iter().position(|b| *b == b'\n').unwrap();
+        assert_eq!(&rest[..=header_end], &whole[..=header_end]);
+        assert_eq!(&rest[header_end + 1..], &whole[cut + 1..]);
+        // A duplicate met on that path is still refused with both lines.
+        let mut dup = open(&format!("{t}S7,1,1,1,1,1,1,1\n"));
+        dup.next();
+        let e = write_modes(dup, &mut Vec::new(), "out", ModesOptions::default());
+        assert!(e
+            .unwrap_err()
+            .to_string()
+            .contains("already used on line 9"));
+    }
+
+    #[test]
     fn a_duplicate_in_a_later_block_names_both_lines() {
         let mut t = table(MANY);
         t.push_str("S5,1,1,1,1,1,1,1\n");

@@ -187,7 +187,8 @@ impl Splitter {
 /// few hundred rows), and its line numbers are moved past the blank lines the reader skipped
 /// before a record (it reports the line where its search began).
 pub(crate) struct PartRows {
-    quoted: csv::Reader<std::io::Cursor<Vec<u8>>>,
+    /// Built on the first part with quotes: most tables never need it.
+    quoted: Option<csv::Reader<std::io::Cursor<Vec<u8>>>>,
     delimiter: u8,
     plain: bool,
     at: usize,
@@ -197,11 +198,7 @@ pub(crate) struct PartRows {
 impl PartRows {
     pub(crate) fn new(delimiter: u8) -> PartRows {
         PartRows {
-            quoted: csv::ReaderBuilder::new()
-                .delimiter(delimiter)
-                .flexible(true)
-                .has_headers(false)
-                .from_reader(std::io::Cursor::new(Vec::new())),
+            quoted: None,
             delimiter,
             plain: true,
             at: 0,
@@ -215,19 +212,27 @@ impl PartRows {
         self.line = line;
         self.plain = memchr::memchr(b'"', text).is_none();
         if !self.plain {
-            let copy = self.quoted.get_mut().get_mut();
+            let delimiter = self.delimiter;
+            let quoted = self.quoted.get_or_insert_with(|| {
+                csv::ReaderBuilder::new()
+                    .delimiter(delimiter)
+                    .flexible(true)
+                    .has_headers(false)
+                    .from_reader(std::io::Cursor::new(Vec::new()))
+            });
+            let copy = quoted.get_mut().get_mut();
             copy.clear();
             copy.extend_from_slice(text);
             // Seeking to the start clears the reader's end-of-input state.
-            self.quoted.seek(csv::Position::new())?;
+            quoted.seek(csv::Position::new())?;
         }
         Ok(())
     }
 
     /// The next record of the part `text` given to [`PartRows::start`]; `false` at its end.
     pub(crate) fn read(&mut self, text: &[u8], rec: &mut csv::ByteRecord) -> csv::Result<bool> {
-        if !self.plain {
-            if !self.quoted.read_byte_record(rec)? {
+        if let (false, Some(quoted)) = (self.plain, self.quoted.as_mut()) {
+            if !quoted.read_byte_record(rec)? {
                 return Ok(false);
             }
             let (byte, line) = rec.position().map_or((0, 1), |p| (p.byte(), p.line()));
