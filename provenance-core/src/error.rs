@@ -9,7 +9,8 @@ use std::fmt;
 pub struct Column {
     /// 1-based position, as a spreadsheet counts.
     pub index: usize,
-    /// The header text of the column.
+    /// The header text of the column; in a model, mapping or field-set file, the key written
+    /// there. Not shown when empty (a position with no header or key, such as a stray byte).
     pub name: String,
 }
 
@@ -20,6 +21,8 @@ pub struct Column {
 /// use provenance_core::error::{Column, Location};
 /// let at = Location::new("counts.csv").line(7).column(Column { index: 5, name: "Lv".into() });
 /// assert_eq!(at.to_string(), "counts.csv, line 7, column 5 (\"Lv\")");
+/// let stray = Location::new("m.json").line(2).column(Column { index: 9, name: String::new() });
+/// assert_eq!(stray.to_string(), "m.json, line 2, column 9");
 /// ```
 #[derive(Debug, Clone, PartialEq, Eq)]
 pub struct Location {
@@ -61,7 +64,10 @@ impl fmt::Display for Location {
             write!(f, ", line {line}")?;
         }
         if let Some(c) = &self.column {
-            write!(f, ", column {} ({:?})", c.index, c.name)?;
+            write!(f, ", column {}", c.index)?;
+            if !c.name.is_empty() {
+                write!(f, " ({:?})", c.name)?;
+            }
         }
         Ok(())
     }
@@ -161,25 +167,27 @@ pub enum Error {
         /// The file.
         file: String,
     },
-    /// The input is not UTF-8 text.
-    #[error("{at}: the bytes are not UTF-8 text, expected a CSV table")]
+    /// The input is not UTF-8 text (or holds a NUL byte).
+    #[error("{at}: the bytes are not UTF-8 text, expected {expected}")]
     NotText {
-        /// Where.
+        /// Where the first offending byte is.
         at: Location,
+        /// What kind of file was expected, such as "a CSV table".
+        expected: String,
     },
     /// The header names no count column at all.
-    #[error("{file}: no recognisable count columns among {headers:?}, expected Qm, Qp, C, P, K, Lv, Ls, Lm (or a --scheme mapping)")]
+    #[error("{at}: no recognisable count columns among {headers:?}, expected Qm, Qp, C, P, K, Lv, Ls, Lm (or a --scheme mapping)")]
     NoCountColumns {
-        /// The file.
-        file: String,
+        /// The header line.
+        at: Location,
         /// The header cells found.
         headers: Vec<String>,
     },
     /// Some framework columns are missing.
-    #[error("{file}: missing column(s) {missing}, expected every framework category (Qm, Qp, P, K, Lv, Ls, Lm; C optional) or a --scheme mapping")]
+    #[error("{at}: missing column(s) {missing}, expected every framework category (Qm, Qp, P, K, Lv, Ls, Lm; C optional) or a --scheme mapping")]
     MissingColumns {
-        /// The file.
-        file: String,
+        /// The header line.
+        at: Location,
         /// The missing categories, comma-separated.
         missing: String,
     },

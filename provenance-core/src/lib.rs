@@ -60,6 +60,7 @@ pub mod report;
 pub mod setting;
 pub mod stats;
 pub mod synthetic;
+mod text;
 
 /// The types most programs need.
 pub mod prelude {

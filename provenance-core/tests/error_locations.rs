@@ -116,10 +116,13 @@ fn write_cases() -> Vec<Case> {
     let r = reader("t.csv", format!("{HEAD}\nA,1,1,1,1,1,1,1,1,x\n")).unwrap();
     let streamed = provenance_core::batch::write_modes(r, &mut Full, "out.csv", Default::default())
         .unwrap_err();
+    // The output's path and the operating system's reason, without the temporary file's
+    // name (the unit tests of `output::atomic` check the whole message).
+    let reason = std::fs::File::create(&target).unwrap_err();
     vec![
         case(
             AtomicFile::create(&target).err().unwrap(),
-            &[&format!("cannot write {}", target.display())],
+            &[&format!("cannot write {}: {reason}", target.display())],
         ),
         case(streamed, &["cannot write out.csv", "no space left"]),
     ]
@@ -192,6 +195,9 @@ fn not_text_cases() -> Vec<Case> {
     let header = reader("t.csv", b"sample,Qm\xff,Qp\n".to_vec())
         .err()
         .unwrap();
+    let below_blank_lines = reader("t.csv", b"\n\nsample,Qm,Q\0p\n".to_vec())
+        .err()
+        .unwrap();
     let mut row = format!("{HEAD}\nA,1,1,1,1,1,1,1,1,").into_bytes();
     row.extend_from_slice(b"Upp\xe9r\n");
     let cell = read_all("t.csv", row);
@@ -200,16 +206,33 @@ fn not_text_cases() -> Vec<Case> {
     std::fs::write(&model, b"{\"format\": \"\xff\"}").unwrap();
     let set = d.path().join("set.toml");
     std::fs::write(&set, b"id = \"\xfe\"\n").unwrap();
+    let map = d.path().join("map.toml");
+    std::fs::write(&map, b"[categories]\nQm = \"Qm \xe9\"\n").unwrap();
+    let at = |p: &Path, rest: &str| format!("{}, {rest}", p.display());
     vec![
-        case(header, &["t.csv, line 1:"]),
-        case(cell, &["t.csv, line 2, column 10 (\"formation\")"]),
+        case(
+            header,
+            &["t.csv, line 1, column 10:", "expected a CSV table"],
+        ),
+        case(below_blank_lines, &["t.csv, line 3, column 12:"]),
+        case(
+            cell,
+            &["t.csv, line 2, column 10 (\"formation\")", "a CSV table"],
+        ),
         case(
             Model::load(&model).unwrap_err(),
-            &[&model.display().to_string()],
+            &[
+                &at(&model, "line 1, column 13:"),
+                "expected a sandprov model file",
+            ],
         ),
         case(
             format::from_path(&set).unwrap_err(),
-            &[&set.display().to_string()],
+            &[&at(&set, "line 1, column 7:"), "expected a field set"],
+        ),
+        case(
+            Mapping::from_path(&map).unwrap_err(),
+            &[&at(&map, "line 2, column 10:"), "expected a column mapping"],
         ),
     ]
 }
@@ -218,14 +241,14 @@ fn no_count_columns_cases() -> Vec<Case> {
     let e = reader("t.csv", "sample,colour,grain size\nA,red,fine\n")
         .err()
         .unwrap();
-    vec![case(e, &["t.csv:", "\"colour\"", "\"grain size\""])]
+    vec![case(e, &["t.csv, line 1:", "\"colour\"", "\"grain size\""])]
 }
 
 fn missing_columns_cases() -> Vec<Case> {
     let e = reader("t.csv", "sample,Qm,Qp,C,P,K,Lv\nA,1,1,1,1,1,1\n")
         .err()
         .unwrap();
-    vec![case(e, &["t.csv:", "Ls, Lm"])]
+    vec![case(e, &["t.csv, line 1:", "Ls, Lm"])]
 }
 
 fn duplicate_column_cases() -> Vec<Case> {
@@ -280,6 +303,15 @@ fn malformed_cases() -> Vec<Case> {
     )
     .unwrap_err();
     let model_key = Model::from_json("m.json", "{\"format\": \"something else\"}").unwrap_err();
+    let model_type = Model::from_json(
+        "m.json",
+        &model_text().replace("\"l2\": 1.0", "\"l2\": \"one\""),
+    )
+    .unwrap_err();
+    let model_unknown =
+        Model::from_json("m.json", &model_text().replace("\"date\"", "\"day\"")).unwrap_err();
+    let without_date = model_text().replace("\"date\": \"2025-01-01\",", "");
+    let model_missing = Model::from_json("m.json", &without_date).unwrap_err();
     let r = reader("t.csv", format!("{HEAD}\nA,1,1,1,1,1,1,1,1,x\n")).unwrap();
     let group_by = GroupBy::find(&r, "basin").unwrap_err();
     vec![
@@ -291,10 +323,59 @@ fn malformed_cases() -> Vec<Case> {
             &["demo.toml, line 16, column 9 (\"group\")", "arc"],
         ),
         case(field_syntax, &["demo.toml, line 7, column", "(\"year\")"]),
-        case(model_json, &["m.json, line 3:"]),
-        case(model_key, &["m.json:", "\"format\"", "something else"]),
+        case(
+            model_json,
+            &["m.json, line 3, column 16:", "not valid JSON"],
+        ),
+        case(
+            model_key,
+            &["m.json, line 1, column 2 (\"format\"):", "something else"],
+        ),
+        case(
+            model_type,
+            &[
+                &model_at("\"l2\"", "l2"),
+                "invalid type: string \"one\", expected f64",
+            ],
+        ),
+        case(
+            model_unknown,
+            &[
+                &model_at("\"date\"", "training.day"),
+                "key \"training.day\": unknown field `day`",
+            ],
+        ),
+        case(
+            model_missing,
+            &[
+                &model_at("\"training\"", "training"),
+                "key \"training\": missing field `date`",
+            ],
+        ),
         case(group_by, &["t.csv, line 1:", "\"basin\"", "formation"]),
     ]
+}
+
+/// A model file as `sandprov train` writes it, of two invented sands.
+fn model_text() -> String {
+    let mut t = TrainingSet::new(FeatureSpace::Diagram(
+        provenance_core::diagram::Diagram::Qfl,
+    ));
+    t.push_amounts("a", &[60.0, 30.0, 10.0], Counting::Counted)
+        .unwrap();
+    t.push_amounts("b", &[20.0, 30.0, 50.0], Counting::Counted)
+        .unwrap();
+    let fit = fit(&t, &FitOptions::default()).unwrap();
+    Model::new(fit, &t, "2025-01-01", "two invented sands", None).to_json()
+}
+
+/// `m.json, line L, column C ("path")` of the first `key` of [`model_text`].
+fn model_at(key: &str, path: &str) -> String {
+    let text = model_text();
+    let i = text.find(key).expect("the key");
+    let line = text[..i].matches('\n').count() + 1;
+    let column = i - text[..i].rfind('\n').map_or(0, |n| n + 1) + 1;
+    format!("m.json, line {line}, column {column} ({path:?}):")
 }
 
 fn training_cases() -> Vec<Case> {

@@ -254,9 +254,15 @@ fn empty_files_are_refused() {
 #[test]
 fn tables_without_count_columns_are_refused() {
     let e = refusal("sample,depth,notes\nA,1,x\n");
-    assert!(e.starts_with("t.csv: no recognisable count columns"), "{e}");
+    assert!(
+        e.starts_with("t.csv, line 1: no recognisable count columns"),
+        "{e}"
+    );
     let e = refusal("sample,Qm,P,K\nA,1,2,3\n");
-    assert!(e.contains("missing column(s) Qp, Lv, Ls, Lm"), "{e}");
+    assert!(
+        e.starts_with("t.csv, line 1: missing column(s) Qp, Lv, Ls, Lm"),
+        "{e}"
+    );
     let e = refusal("id,Qm,Qp,P,K,Lv,Ls,Lm\nA,1,1,1,1,1,1,1\n");
     assert!(e.starts_with("t.csv, line 1: no sample id column"), "{e}");
 }
@@ -275,7 +281,13 @@ fn binary_garbage_is_refused_as_not_text() {
     let e = read_with(b"\x00\x01\x02\xff\xfe", ReadOptions::default()).unwrap_err();
     assert_eq!(
         e.to_string(),
-        "t.csv, line 1: the bytes are not UTF-8 text, expected a CSV table"
+        "t.csv, line 1, column 1: the bytes are not UTF-8 text, expected a CSV table"
+    );
+    // Below two blank lines, the header's third character.
+    let e = read_with(b"\n\nsa\xffmple,Qm\n", ReadOptions::default()).unwrap_err();
+    assert_eq!(
+        e.to_string(),
+        "t.csv, line 3, column 3: the bytes are not UTF-8 text, expected a CSV table"
     );
     let mut text = format!("{HEAD},notes\nA,1,1,1,1,1,1,1,1,").into_bytes();
     text.extend_from_slice(b"\xff\xfe\n");

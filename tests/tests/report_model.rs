@@ -350,6 +350,13 @@ fn refused_models_leave_no_report_folder() {
     let text = std::fs::read_to_string(sb.path("qmpk.json")).unwrap();
     assert!(text.contains("\"class-b\""));
     sb.write("edited.json", text.replace("\"class-b\"", "\"class-bb\""));
+    // The refusal points at the checksum key, the last of the file.
+    let line = 1 + text
+        .lines()
+        .position(|l| l.starts_with("  \"checksum\""))
+        .expect("a checksum key");
+    let checksum_at =
+        format!("edited.json, line {line}, column 3 (\"checksum\"): key \"checksum\"");
     refuse(
         &[
             "report",
@@ -360,7 +367,7 @@ fn refused_models_leave_no_report_folder() {
             "edited.json",
         ],
         3,
-        &["edited.json: key \"checksum\"", "an unaltered model file"],
+        &[&checksum_at, "an unaltered model file"],
     );
     // Neither a file nor an embedded id.
     refuse(

@@ -45,6 +45,7 @@ mod cv;
 mod features;
 mod fit;
 mod from_fields;
+mod json_location;
 mod model;
 mod named;
 mod newton;

@@ -3,9 +3,10 @@
 use super::cv::CrossValidation;
 use super::features::{FeatureProblem, FeatureSpace};
 use super::fit::{softmax, Convergence, LogisticFit};
+use super::json_location::{self, JsonText};
 use super::training::TrainingSet;
 use crate::counts::Sample;
-use crate::error::{Error, Location, Result};
+use crate::error::{Error, Result};
 use serde::{Deserialize, Serialize};
 use sha2::{Digest, Sha256};
 use std::path::Path;
@@ -247,70 +248,76 @@ impl Model {
 
     /// Read a model file.
     pub fn load(path: &Path) -> Result<Model> {
-        let name = path.display().to_string();
-        let text = std::fs::read(path).map_err(|source| Error::Read {
-            path: name.clone(),
-            source,
-        })?;
-        let text = String::from_utf8(text).map_err(|_| Error::NotText {
-            at: Location::new(&name),
-        })?;
+        let (name, text) = crate::text::read_text(path, EXPECTED_FILE)?;
         Model::from_json(&name, &text)
     }
 
-    /// Parse and check model text; `file` names it in messages.
+    /// Parse and check model text; `file` names it in messages, each refusal with the line
+    /// and column of the key or element at fault (a missing key: of the object that lacks it).
+    ///
+    /// # Example
+    /// ```
+    /// use provenance_core::classifier::Model;
+    /// let text = "{\n  \"format\": \"sandprov-model\",\n  \"version\": \"2\"\n}\n";
+    /// let e = Model::from_json("m.json", text).unwrap_err().to_string();
+    /// assert!(e.starts_with("m.json, line 3, column 3 (\"version\"): key \"version\": found \"2\""), "{e}");
+    /// ```
     pub fn from_json(file: &str, text: &str) -> Result<Model> {
-        let expected_file = "a sandprov model file (JSON written by `sandprov train`)";
-        let value: serde_json::Value =
-            serde_json::from_str(text).map_err(|e| Error::Malformed {
-                at: Location::new(file).line(e.line() as u64),
-                message: format!("not valid JSON ({e})"),
-                expected: expected_file.into(),
-            })?;
+        let json = JsonText { file, text };
+        let value: serde_json::Value = serde_json::from_str(text).map_err(|e| {
+            let (at, reason) = json.syntax_error(&e);
+            Error::Malformed {
+                at,
+                message: format!("not valid JSON ({reason})"),
+                expected: EXPECTED_FILE.into(),
+            }
+        })?;
         let bad = |key: &str, message: String, expected: String| Error::Malformed {
-            at: Location::new(file),
+            at: json.at(&[json_location::key(key)]),
             message: format!("key {key:?}: {message}"),
             expected,
         };
-        match value.get("format").and_then(|v| v.as_str()) {
-            Some(MODEL_FORMAT) => {}
-            other => {
-                return Err(bad(
-                    "format",
-                    format!("found {other:?}"),
-                    format!("{MODEL_FORMAT:?} ({expected_file})"),
-                ))
-            }
+        if value.get("format").and_then(|v| v.as_str()) != Some(MODEL_FORMAT) {
+            return Err(bad(
+                "format",
+                found(value.get("format")),
+                format!("{MODEL_FORMAT:?} ({EXPECTED_FILE})"),
+            ));
         }
-        match value.get("version").and_then(|v| v.as_u64()) {
-            Some(v) if v == u64::from(MODEL_VERSION) => {}
-            other => {
-                return Err(bad(
-                    "version",
-                    format!("found {other:?}"),
-                    format!("{MODEL_VERSION} (this build reads model version {MODEL_VERSION})"),
-                ))
-            }
+        if value.get("version").and_then(|v| v.as_u64()) != Some(u64::from(MODEL_VERSION)) {
+            return Err(bad(
+                "version",
+                found(value.get("version")),
+                format!("{MODEL_VERSION} (this build reads model version {MODEL_VERSION})"),
+            ));
         }
         let mut value = value;
         let stored = match value.as_object_mut().and_then(|m| m.remove("checksum")) {
             Some(serde_json::Value::String(s)) => s,
-            other => return Err(bad(
-                "checksum",
-                match other {
-                    None => "missing".into(),
-                    Some(v) => format!("found {v}"),
-                },
-                "the \"sha256:…\" checksum of the model's content, as `sandprov train` writes it"
-                    .into(),
-            )),
+            other => {
+                return Err(bad(
+                    "checksum",
+                    found(other.as_ref()),
+                    "the \"sha256:…\" checksum of the model's content, as `sandprov train` \
+                     writes it"
+                        .into(),
+                ))
+            }
         };
-        let model: Model = serde_json::from_value(value).map_err(|e| Error::Malformed {
-            at: Location::new(file),
-            message: format!("{e}"),
-            expected: format!("the keys and types of {expected_file}"),
+        let model: Model = serde_path_to_error::deserialize(value).map_err(|e| {
+            let path = steps(e.path());
+            let shown = json_location::path_text(&path);
+            Error::Malformed {
+                at: json.at(&path),
+                message: if shown.is_empty() {
+                    e.inner().to_string()
+                } else {
+                    format!("key {shown:?}: {}", e.inner())
+                },
+                expected: format!("the keys and types of {EXPECTED_FILE}"),
+            }
         })?;
-        model.validate(file)?;
+        model.validate(&json)?;
         let computed = model.checksum();
         if computed != stored {
             return Err(bad(
@@ -324,18 +331,24 @@ impl Model {
         Ok(model)
     }
 
-    fn validate(&self, file: &str) -> Result<()> {
-        let bad = |key: &str, message: String, expected: String| {
+    /// Check the shapes and values that the types alone do not; each refusal points at the
+    /// key or element at fault in `json`.
+    fn validate(&self, json: &JsonText) -> Result<()> {
+        use json_location::{key, Step};
+        let bad = |path: &[Step], message: String, expected: String| {
+            // The key in words: the path without the indices that point into its value.
+            let keys = path.iter().rposition(|s| matches!(s, Step::Key(_)));
+            let shown = json_location::path_text(&path[..keys.map_or(0, |k| k + 1)]);
             Err(Error::Malformed {
-                at: Location::new(file),
-                message: format!("key {key:?}: {message}"),
+                at: json.at(path),
+                message: format!("key {shown:?}: {message}"),
                 expected,
             })
         };
         let (k, d) = (self.classes.len(), self.features.composition.dimension());
         if k < 2 {
             return bad(
-                "classes",
+                &[key("classes")],
                 format!("{k} class(es)"),
                 "at least two classes".into(),
             );
@@ -345,61 +358,92 @@ impl Model {
         sorted.dedup();
         if sorted != self.classes {
             return bad(
-                "classes",
+                &[key("classes")],
                 format!("{:?}", self.classes),
                 "distinct labels in sorted order".into(),
             );
         }
-        if self.weights.len() != k || self.weights.iter().any(|w| w.len() != d) {
+        let per_row = format!(
+            "{d} numbers (one per {} feature) in each of {k} rows (one per class)",
+            self.features.composition
+        );
+        if self.weights.len() != k {
             return bad(
-                "weights",
-                format!(
-                    "{} rows of lengths {:?}",
-                    self.weights.len(),
-                    self.weights.iter().map(Vec::len).collect::<Vec<_>>()
-                ),
-                format!(
-                    "{k} rows (one per class) of {d} numbers (one per {} feature)",
-                    self.features.composition
-                ),
+                &[key("weights")],
+                format!("{} rows", self.weights.len()),
+                per_row,
+            );
+        }
+        if let Some(i) = self.weights.iter().position(|w| w.len() != d) {
+            return bad(
+                &[key("weights"), Step::Index(i)],
+                format!("row {} has {} numbers", i + 1, self.weights[i].len()),
+                per_row,
             );
         }
         if self.intercepts.len() != k {
             return bad(
-                "intercepts",
+                &[key("intercepts")],
                 format!("{} numbers", self.intercepts.len()),
                 format!("{k} numbers, one per class"),
             );
         }
         if self.features.names.len() != d {
             return bad(
-                "features.names",
+                &[key("features"), key("names")],
                 format!("{} names", self.features.names.len()),
                 format!("{d} names"),
             );
         }
-        let all_finite = self
-            .weights
-            .iter()
-            .flatten()
-            .chain(&self.intercepts)
-            .all(|v| v.is_finite());
-        if !all_finite {
-            return bad(
-                "weights",
-                "a non-finite number".into(),
-                "finite coefficients and intercepts".into(),
-            );
+        let finite = "finite coefficients and intercepts".to_string();
+        for (i, row) in self.weights.iter().enumerate() {
+            if let Some(j) = row.iter().position(|v| !v.is_finite()) {
+                let at = [key("weights"), Step::Index(i), Step::Index(j)];
+                return bad(&at, format!("{}", row[j]), finite);
+            }
+        }
+        if let Some(i) = self.intercepts.iter().position(|v| !v.is_finite()) {
+            let at = [key("intercepts"), Step::Index(i)];
+            return bad(&at, format!("{}", self.intercepts[i]), finite);
         }
         if !self.l2.is_finite() || self.l2 < 0.0 {
             return bad(
-                "l2",
+                &[key("l2")],
                 format!("{}", self.l2),
                 "a penalty of 0 or more".into(),
             );
         }
         Ok(())
     }
+}
+
+/// What a model file is, for refusals of the whole file.
+const EXPECTED_FILE: &str = "a sandprov model file (JSON written by `sandprov train`)";
+
+/// A checked value as found: compact JSON (cut short past 80 characters), or `missing`.
+fn found(v: Option<&serde_json::Value>) -> String {
+    let Some(v) = v else {
+        return "missing".into();
+    };
+    let text = v.to_string();
+    match text.char_indices().nth(80) {
+        Some((cut, _)) => format!("found {}…", &text[..cut]),
+        None => format!("found {text}"),
+    }
+}
+
+/// The steps of a failed deserialization's path, up to the first that names no key or index.
+fn steps(path: &serde_path_to_error::Path) -> Vec<json_location::Step> {
+    use serde_path_to_error::Segment;
+    path.iter()
+        .map_while(|s| match s {
+            Segment::Seq { index } => Some(json_location::Step::Index(*index)),
+            Segment::Map { key } | Segment::Enum { variant: key } => {
+                Some(json_location::Step::Key(key.clone()))
+            }
+            Segment::Unknown => None,
+        })
+        .collect()
 }
 
 /// `sha256:` and the 64 hex digits of the SHA-256 of `bytes`.

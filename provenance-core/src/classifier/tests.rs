@@ -204,6 +204,117 @@ fn model_files_round_trip_and_bad_ones_name_the_key() {
     assert!(e.to_string().starts_with("m.json, line 3"), "{e}");
 }
 
+/// "line L, column C" of the byte `skip` bytes into the first `needle` of `text` (ASCII).
+fn line_col(text: &str, needle: &str, skip: usize) -> String {
+    let i = text.find(needle).expect(needle) + skip;
+    let line = text[..i].matches('\n').count() + 1;
+    let column = i - text[..i].rfind('\n').map_or(0, |n| n + 1) + 1;
+    format!("line {line}, column {column}")
+}
+
+#[test]
+fn refusals_of_a_pretty_model_file_name_the_line_and_column_of_the_key() {
+    let v: serde_json::Value = serde_json::from_str(&model().to_json()).unwrap();
+    // Each edit, a needle that finds the key or element at fault in the edited text (the
+    // first byte past `skip`), the key path the location names, and the message's rest.
+    type Edit = fn(&mut serde_json::Value);
+    let cases: [(Edit, &str, usize, &str, &str); 9] = [
+        (
+            |w| w["features"]["parts"][2] = serde_json::json!(777),
+            "777",
+            0,
+            "features.parts[2]",
+            "key \"features.parts[2]\": invalid type: integer `777`, expected a string",
+        ),
+        (
+            |w| w["features"]["composition"] = serde_json::json!("qxl"),
+            "\n    \"composition\"",
+            5,
+            "features.composition",
+            "unknown composition",
+        ),
+        (
+            |w| w["weights"][1] = serde_json::json!([0.125]),
+            "[\n      0.125",
+            0,
+            "weights[1]",
+            "key \"weights\": row 2 has 1 numbers",
+        ),
+        (
+            |w| w["colour"] = serde_json::json!("red"),
+            "\n  \"colour\"",
+            3,
+            "colour",
+            "key \"colour\": unknown field `colour`",
+        ),
+        (
+            |w| {
+                w["training"].as_object_mut().unwrap().remove("date");
+            },
+            "\n  \"training\"",
+            3,
+            "training",
+            "key \"training\": missing field `date`",
+        ),
+        (
+            |w| w["format"] = serde_json::json!("other"),
+            "\n  \"format\"",
+            3,
+            "format",
+            "key \"format\": found \"other\", expected \"sandprov-model\"",
+        ),
+        (
+            |w| w["version"] = serde_json::json!("2"),
+            "\n  \"version\"",
+            3,
+            "version",
+            "key \"version\": found \"2\", expected 2",
+        ),
+        (
+            |w| w["l2"] = serde_json::json!(-1.5),
+            "\n  \"l2\"",
+            3,
+            "l2",
+            "key \"l2\": -1.5, expected a penalty of 0 or more",
+        ),
+        (
+            |w| w["checksum"] = serde_json::json!(12),
+            "\n  \"checksum\"",
+            3,
+            "checksum",
+            "key \"checksum\": found 12,",
+        ),
+    ];
+    for (edit, needle, skip, path, rest) in cases {
+        let mut w = v.clone();
+        edit(&mut w);
+        let text = serde_json::to_string_pretty(&w).unwrap();
+        let e = Model::from_json("m.json", &text).unwrap_err().to_string();
+        let at = format!("m.json, {} ({path:?}): ", line_col(&text, needle, skip));
+        assert!(
+            e.starts_with(&at) && e.contains(rest),
+            "{e}\nwanted {at}…{rest}"
+        );
+    }
+    // A key missing from the whole model: the model's own first line.
+    let mut w = v.clone();
+    w.as_object_mut().unwrap().remove("kind");
+    let text = format!("\n\n{}", serde_json::to_string_pretty(&w).unwrap());
+    let e = Model::from_json("m.json", &text).unwrap_err().to_string();
+    assert!(e.starts_with("m.json, line 3: missing field `kind`"), "{e}");
+    // Not JSON: the line and column of the character where parsing stopped, said once.
+    let e = Model::from_json(
+        "m.json",
+        "{\n  \"format\": \"sandprov-model\",\n  \"version\" 2\n}",
+    )
+    .unwrap_err()
+    .to_string();
+    assert!(
+        e.starts_with("m.json, line 3, column 13: not valid JSON (expected `:`), expected a sandprov model file"),
+        "{e}"
+    );
+}
+
 #[test]
 fn a_labelled_table_names_bad_rows() {
     let text = "sample,Qm,Qp,P,K,Lv,Ls,Lm,setting\nA,10,1,1,1,1,1,1,x\nB,10,1,1,1,1,1,1, \n";
@@ -269,7 +380,7 @@ fn an_edited_model_file_fails_its_checksum() {
         .unwrap_err()
         .to_string();
     assert!(
-        e.starts_with("m.json: key \"checksum\": the model's content gives sha256:")
+        e.starts_with("m.json, line 1, column 2 (\"checksum\"): key \"checksum\": the model's content gives sha256:")
             && e.contains("an unaltered model file"),
         "{e}"
     );
@@ -290,10 +401,7 @@ fn an_edited_model_file_fails_its_checksum() {
     let mut w = v;
     w["version"] = serde_json::json!(1);
     let e = Model::from_json("m.json", &w.to_string()).unwrap_err();
-    assert!(
-        e.to_string().contains("key \"version\": found Some(1)"),
-        "{e}"
-    );
+    assert!(e.to_string().contains("key \"version\": found 1,"), "{e}");
 }
 
 #[test]
@@ -342,10 +450,15 @@ fn resolving_a_file_loads_and_checks_it() {
     std::fs::write(&edited, m.to_json().replace("\"invented\"", "\"other\"")).unwrap();
     let e = NamedModel::resolve(edited.to_str().unwrap(), "2030-01-01").unwrap_err();
     assert_eq!(e.kind(), crate::error::ErrorKind::Input);
-    assert!(
-        e.to_string().contains("edited.json: key \"checksum\""),
-        "{e}"
-    );
+    let checksum_line = m
+        .to_json()
+        .lines()
+        .position(|l| l.starts_with("  \"checksum\""))
+        .unwrap()
+        + 1;
+    let shown =
+        format!("edited.json, line {checksum_line}, column 3 (\"checksum\"): key \"checksum\"");
+    assert!(e.to_string().contains(&shown), "{e}");
 
     let missing = dir.path().join("nope.json");
     let e = NamedModel::resolve(missing.to_str().unwrap(), "2030-01-01").unwrap_err();

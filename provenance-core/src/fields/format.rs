@@ -34,6 +34,9 @@ use toml::Spanned;
 /// The format version this build reads.
 pub const FORMAT_VERSION: i64 = 1;
 
+/// What a field-set file is, for refusals of the whole file.
+const EXPECTED_FILE: &str = "a field set as described in reference-fields/README.md";
+
 /// Most vertices a set may have in all, so that checking stays quick (our limit; a digitised
 /// field rarely needs more than a few hundred).
 pub const MAX_VERTICES: usize = 10_000;
@@ -69,11 +72,7 @@ struct RawField {
 
 /// 1-based line and column of a byte offset.
 fn pos(text: &str, offset: usize) -> TextPos {
-    let offset = offset.min(text.len());
-    let before = text.get(..offset).unwrap_or(text);
-    let line = before.matches('\n').count() as u64 + 1;
-    let col = before.rsplit('\n').next().map_or(0, |l| l.chars().count()) as u64 + 1;
-    TextPos { line, column: col }
+    crate::text::position(text.as_bytes(), offset)
 }
 
 /// The key written at the start of the line holding `offset`, when the line is `key = …`.
@@ -152,14 +151,7 @@ fn id_ok(id: &str) -> bool {
 /// assert!(e.to_string().contains("missing"), "{e}");
 /// ```
 pub fn from_path(path: &std::path::Path) -> Result<FieldSet> {
-    let name = path.display().to_string();
-    let bytes = std::fs::read(path).map_err(|source| Error::Read {
-        path: name.clone(),
-        source,
-    })?;
-    let text = String::from_utf8(bytes).map_err(|_| Error::NotText {
-        at: Location::new(&name),
-    })?;
+    let (name, text) = crate::text::read_text(path, EXPECTED_FILE)?;
     parse(&name, &text)
 }
 
@@ -212,7 +204,7 @@ pub fn parse(file: &str, text: &str) -> Result<FieldSet> {
         Error::Malformed {
             at: cx.at(&span, &key),
             message,
-            expected: "a field set as described in reference-fields/README.md".into(),
+            expected: EXPECTED_FILE.into(),
         }
     })?;
     if let Some(f) = &raw.format {

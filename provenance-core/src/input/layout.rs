@@ -22,15 +22,29 @@ pub(crate) struct Layout {
     pub present: [bool; 14],
 }
 
+/// [`resolve_at`] for a header on the file's first line.
 pub(crate) fn resolve(
     file: &str,
     headers: &[String],
     mapping: Option<&Mapping>,
     percent: bool,
 ) -> Result<Layout> {
+    resolve_at(file, 1, headers, mapping, percent)
+}
+
+/// The roles of the columns of `headers`, the header of `file` on 1-based line
+/// `header_line` (which every refusal of the header names).
+pub(crate) fn resolve_at(
+    file: &str,
+    header_line: u64,
+    headers: &[String],
+    mapping: Option<&Mapping>,
+    percent: bool,
+) -> Result<Layout> {
     let keys: Vec<String> = headers.iter().map(|h| normalize_header(h)).collect();
+    let header = || Location::new(file).line(header_line);
     let at_col = |i: usize| {
-        Location::new(file).line(1).column(Column {
+        header().column(Column {
             index: i + 1,
             name: headers[i].clone(),
         })
@@ -44,7 +58,7 @@ pub(crate) fn resolve(
         .iter()
         .position(|k| *k == normalize_header(&id_name))
         .ok_or_else(|| Error::Malformed {
-            at: Location::new(file).line(1),
+            at: header(),
             message: format!("no sample id column {id_name:?} among {headers:?}"),
             expected: "a column named \"sample\" (or id = \"…\" in the --scheme mapping)".into(),
         })?;
@@ -117,7 +131,7 @@ pub(crate) fn resolve(
     }
     if !present.iter().any(|p| *p) {
         return Err(Error::NoCountColumns {
-            file: file.into(),
+            at: header(),
             headers: headers.to_vec(),
         });
     }
@@ -128,7 +142,7 @@ pub(crate) fn resolve(
         .collect();
     if !missing.is_empty() {
         return Err(Error::MissingColumns {
-            file: file.into(),
+            at: header(),
             missing: missing.join(", "),
         });
     }
@@ -141,4 +155,48 @@ pub(crate) fn resolve(
         meta,
         present,
     })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn cells(line: &str) -> Vec<String> {
+        line.split(',').map(str::to_string).collect()
+    }
+
+    #[test]
+    fn refusals_of_the_header_name_its_line() {
+        // A header below two blank lines sits on line 3.
+        let none = resolve_at("t.csv", 3, &cells("sample,colour"), None, false).unwrap_err();
+        assert!(
+            none.to_string()
+                .starts_with("t.csv, line 3: no recognisable count columns"),
+            "{none}"
+        );
+        let some = resolve_at("t.csv", 3, &cells("sample,Qm,Qp,P,K"), None, false).unwrap_err();
+        assert!(
+            some.to_string()
+                .starts_with("t.csv, line 3: missing column(s) Lv, Ls, Lm"),
+            "{some}"
+        );
+        let twice = resolve_at("t.csv", 3, &cells("sample,Qm,Qm"), None, false).unwrap_err();
+        assert!(
+            twice
+                .to_string()
+                .starts_with("t.csv, line 3, column 3 (\"Qm\")"),
+            "{twice}"
+        );
+        let no_id = resolve_at("t.csv", 3, &cells("id,Qm"), None, false).unwrap_err();
+        assert!(
+            no_id.to_string().starts_with("t.csv, line 3: no sample id"),
+            "{no_id}"
+        );
+    }
+
+    #[test]
+    fn a_header_on_the_first_line_is_line_one() {
+        let e = resolve("t.csv", &cells("sample,colour"), None, false).unwrap_err();
+        assert!(e.to_string().starts_with("t.csv, line 1: "), "{e}");
+    }
 }

@@ -74,14 +74,10 @@ fn line_of(text: &str, key: &str) -> u64 {
 impl Mapping {
     /// Read and parse a mapping file.
     pub fn from_path(path: &std::path::Path) -> Result<Mapping> {
-        let name = path.display().to_string();
-        let text = std::fs::read(path).map_err(|source| Error::Read {
-            path: name.clone(),
-            source,
-        })?;
-        let text = String::from_utf8(text).map_err(|_| Error::NotText {
-            at: Location::new(&name),
-        })?;
+        let (name, text) = crate::text::read_text(
+            path,
+            "a column mapping (TOML: id, points and a [categories] table)",
+        )?;
         Mapping::parse(&name, &text)
     }
 
@@ -93,9 +89,9 @@ impl Mapping {
             expected: expected.to_string(),
         };
         let table: toml::Table = text.parse().map_err(|e: toml::de::Error| {
-            let line = e.span().map_or(1, |s| {
-                text[..s.start.min(text.len())].lines().count().max(1) as u64
-            });
+            let line = e
+                .span()
+                .map_or(1, |s| crate::text::position(text.as_bytes(), s.start).line);
             bad(
                 line,
                 format!("not valid TOML ({})", e.message()),

@@ -185,9 +185,7 @@ impl CountReader {
             header_start
         };
         if head.contains(&0) || std::str::from_utf8(&head).is_err() {
-            return Err(Error::NotText {
-                at: Location::new(file).line(1),
-            });
+            return Err(crate::text::not_text(file, &head, "a CSV table"));
         }
         let delimiter = sniff_delimiter(&head[header_start..]);
         let dialect = Dialect {
@@ -434,6 +432,7 @@ impl RowParser {
     ) -> Result<()> {
         let text = std::str::from_utf8(&rec[col]).map_err(|_| Error::NotText {
             at: self.location(line, col),
+            expected: "a CSV table".into(),
         })?;
         into.clear();
         into.push_str(text);

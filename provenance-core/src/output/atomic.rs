@@ -53,7 +53,10 @@ pub fn check_not_input(output: &Path, inputs: &[&Path]) -> Result<()> {
 /// assert_eq!(std::fs::read(&path).unwrap(), b"a,b\n");
 /// ```
 pub struct AtomicFile {
-    tmp: BufWriter<tempfile::NamedTempFile>,
+    // The file and its temporary path apart: writes to a plain file report the operating
+    // system's reason alone, where tempfile's own file adds its temporary name to each error.
+    tmp: BufWriter<std::fs::File>,
+    tmp_path: tempfile::TempPath,
     path: PathBuf,
     writeback: Writeback,
 }
@@ -119,16 +122,18 @@ impl AtomicFile {
             .parent()
             .filter(|p| !p.as_os_str().is_empty())
             .unwrap_or(Path::new("."));
-        let tmp = tempfile::Builder::new()
+        let (tmp, tmp_path) = tempfile::Builder::new()
             .prefix(".sandprov-")
             .suffix(".partial")
             .tempfile_in(dir)
             .map_err(|source| Error::Write {
                 path: path.display().to_string(),
-                source,
-            })?;
+                source: without_temporary_name(source),
+            })?
+            .into_parts();
         Ok(AtomicFile {
             tmp: BufWriter::with_capacity(1 << 16, tmp),
+            tmp_path,
             path: path.to_path_buf(),
             writeback: Writeback {
                 written: 0,
@@ -159,20 +164,36 @@ impl AtomicFile {
         {
             use std::os::unix::fs::PermissionsExt;
             let mode = 0o666 & !current_umask();
-            tmp.as_file()
-                .set_permissions(std::fs::Permissions::from_mode(mode))
+            tmp.set_permissions(std::fs::Permissions::from_mode(mode))
                 .map_err(err)?;
         }
-        tmp.as_file().sync_all().map_err(err)?;
-        tmp.persist(&self.path).map_err(|e| err(e.error))?;
+        tmp.sync_all().map_err(err)?;
+        drop(tmp);
+        self.tmp_path
+            .persist(&self.path)
+            .map_err(|e| err(e.error))?;
         Ok(())
+    }
+}
+
+/// The operating system's reason for a failure to create the temporary file, without the
+/// temporary file's name that tempfile appends (`… at path "…/.sandprov-….partial"`): the
+/// user asked for the output path, which the message names already.
+fn without_temporary_name(e: std::io::Error) -> std::io::Error {
+    if e.raw_os_error().is_some() {
+        return e;
+    }
+    let text = e.to_string();
+    match text.rfind(" at path \"") {
+        Some(i) if text.ends_with('"') => std::io::Error::new(e.kind(), &text[..i]),
+        _ => e,
     }
 }
 
 impl Write for AtomicFile {
     fn write(&mut self, buf: &[u8]) -> std::io::Result<usize> {
         let n = self.tmp.write(buf)?;
-        self.writeback.wrote(n, self.tmp.get_ref().as_file());
+        self.writeback.wrote(n, self.tmp.get_ref());
         Ok(n)
     }
     fn flush(&mut self) -> std::io::Result<()> {
@@ -266,5 +287,36 @@ impl Write for Sink {
             Sink::Stdout(w) => w.flush(),
             Sink::File(f) => f.flush(),
         }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_missing_folder_is_reported_once_under_the_output_path() {
+        let dir = tempfile::tempdir().unwrap();
+        let target = dir.path().join("no-such-folder").join("out.csv");
+        // The operating system's own words for the same failure.
+        let reason = std::fs::File::create(&target).unwrap_err();
+        let e = AtomicFile::create(&target).err().unwrap().to_string();
+        assert_eq!(e, format!("cannot write {}: {reason}", target.display()));
+    }
+
+    #[test]
+    fn only_an_appended_temporary_name_is_taken_off() {
+        let named = std::io::Error::new(
+            std::io::ErrorKind::PermissionDenied,
+            "Permission denied (os error 13) at path \"/data/.sandprov-x1.partial\"",
+        );
+        let plain = without_temporary_name(named);
+        assert_eq!(plain.kind(), std::io::ErrorKind::PermissionDenied);
+        assert_eq!(plain.to_string(), "Permission denied (os error 13)");
+        let other = std::io::Error::other("disk on fire");
+        assert_eq!(without_temporary_name(other).to_string(), "disk on fire");
+        let os = std::io::Error::from_raw_os_error(2);
+        let shown = os.to_string();
+        assert_eq!(without_temporary_name(os).to_string(), shown);
     }
 }
