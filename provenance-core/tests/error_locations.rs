@@ -241,21 +241,41 @@ fn no_count_columns_cases() -> Vec<Case> {
     let e = reader("t.csv", "sample,colour,grain size\nA,red,fine\n")
         .err()
         .unwrap();
-    vec![case(e, &["t.csv, line 1:", "\"colour\"", "\"grain size\""])]
+    // Below two blank lines the header sits on line 3.
+    let below = reader("t.csv", "\n\nsample,colour\nA,red\n").err().unwrap();
+    vec![
+        case(e, &["t.csv, line 1:", "\"colour\"", "\"grain size\""]),
+        case(below, &["t.csv, line 3:", "\"colour\""]),
+    ]
 }
 
 fn missing_columns_cases() -> Vec<Case> {
     let e = reader("t.csv", "sample,Qm,Qp,C,P,K,Lv\nA,1,1,1,1,1,1\n")
         .err()
         .unwrap();
-    vec![case(e, &["t.csv, line 1:", "Ls, Lm"])]
+    let bom = reader(
+        "t.csv",
+        "\u{feff}\r\nsample,Qm,Qp,C,P,K,Lv\r\nA,1,1,1,1,1,1\r\n",
+    )
+    .err()
+    .unwrap();
+    vec![
+        case(e, &["t.csv, line 1:", "Ls, Lm"]),
+        case(bom, &["t.csv, line 2:", "Ls, Lm"]),
+    ]
 }
 
 fn duplicate_column_cases() -> Vec<Case> {
     let e = reader("t.csv", format!("{HEAD},Qm\nA,1,1,1,1,1,1,1,1,x,2\n"))
         .err()
         .unwrap();
-    vec![case(e, &["t.csv, line 1, column 11 (\"Qm\")", "column 2"])]
+    let below = reader("t.csv", format!("\n{HEAD},Qm\nA,1,1,1,1,1,1,1,1,x,2\n"))
+        .err()
+        .unwrap();
+    vec![
+        case(e, &["t.csv, line 1, column 11 (\"Qm\")", "column 2"]),
+        case(below, &["t.csv, line 2, column 11 (\"Qm\")"]),
+    ]
 }
 
 const SET: &str = r#"id = "demo"

@@ -53,6 +53,14 @@ fn bom_crlf_and_trailing_blank_lines_are_accepted() {
 }
 
 #[test]
+fn a_bom_before_blank_lines_leaves_the_header_below_them() {
+    // Regression: the mark alone made line 1 look like a (cell-less) header.
+    let text = format!("\u{feff}\r\n\r\n{HEAD}\r\nA,1,2,3,4,5,6,7,8\r\n");
+    let s = read(&text).unwrap();
+    assert_eq!((s[0].id.as_str(), s[0].line), ("A", 4));
+}
+
+#[test]
 fn crlf_files_report_editor_lines_and_keep_line_breaks_inside_quoted_cells() {
     for note in ["plain", "\"two\r\nlines\""] {
         let t = format!("{HEAD},notes\r\nA,1,1,1,1,1,1,1,1,{note}\r\n\r\nB,x,1,1,1,1,1,1,1,n\r\n");

@@ -22,16 +22,6 @@ pub(crate) struct Layout {
     pub present: [bool; 14],
 }
 
-/// [`resolve_at`] for a header on the file's first line.
-pub(crate) fn resolve(
-    file: &str,
-    headers: &[String],
-    mapping: Option<&Mapping>,
-    percent: bool,
-) -> Result<Layout> {
-    resolve_at(file, 1, headers, mapping, percent)
-}
-
 /// The roles of the columns of `headers`, the header of `file` on 1-based line
 /// `header_line` (which every refusal of the header names).
 pub(crate) fn resolve_at(
@@ -196,7 +186,7 @@ mod tests {
 
     #[test]
     fn a_header_on_the_first_line_is_line_one() {
-        let e = resolve("t.csv", &cells("sample,colour"), None, false).unwrap_err();
+        let e = resolve_at("t.csv", 1, &cells("sample,colour"), None, false).unwrap_err();
         assert!(e.to_string().starts_with("t.csv, line 1: "), "{e}");
     }
 }

@@ -3,7 +3,7 @@
 use super::blocks::{Block, PartRows, Splitter};
 use super::cell;
 use super::ids::{id_key, IdRegistry, Repeat};
-use super::layout::{resolve, Layout, Role};
+use super::layout::{resolve_at, Layout, Role};
 use super::mapping::Mapping;
 use crate::counts::{Counting, Framework, NonFramework, Sample};
 use crate::error::{Column, Error, Location, Result};
@@ -161,7 +161,13 @@ impl CountReader {
             if n == 0 {
                 return Err(Error::EmptyInput { file: file.into() });
             }
-            if head[start..].iter().any(|b| !b.is_ascii_whitespace()) {
+            // A byte-order mark alone does not make the first line a header.
+            let line = &head[start..];
+            let line = match start {
+                0 => line.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(line),
+                _ => line,
+            };
+            if line.iter().any(|b| !b.is_ascii_whitespace()) {
                 break start;
             }
         };
@@ -205,7 +211,15 @@ impl CountReader {
             .iter()
             .map(|h| h.trim().to_string())
             .collect();
-        let layout = resolve(file, &headers, options.mapping.as_ref(), options.percent)?;
+        // The header's own line, below any leading blank lines (a BOM adds no line).
+        let header_line = head[..header_start].iter().filter(|b| **b == b'\n').count() as u64 + 1;
+        let layout = resolve_at(
+            file,
+            header_line,
+            &headers,
+            options.mapping.as_ref(),
+            options.percent,
+        )?;
         let meta_names = layout.meta.iter().map(|i| headers[*i].clone()).collect();
         Ok(CountReader {
             data: Some(Box::new(buf)),
