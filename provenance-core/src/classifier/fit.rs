@@ -17,6 +17,43 @@ pub const DEFAULT_L2: f64 = 1.0;
 /// log-loss must be at most 1e-6 in absolute value.
 pub const DEFAULT_TOLERANCE: f64 = 1e-6;
 
+/// Above this many parameters (classes × (features + 1)) the automatic choice fits by
+/// L-BFGS instead of Newton's method: a Newton step costs about k²q²/4 products a sample and a
+/// (kq)³/3 factorisation, L-BFGS steps cost kq, so past a few dozen parameters the many cheap
+/// steps win (Nocedal & Wright 2006, Numerical Optimization, ch. 6-7; the threshold is ours).
+pub const NEWTON_MAX_PARAMETERS: usize = 64;
+
+/// The optimiser of a fit. Both minimise the same objective to the same tolerance.
+///
+/// # Example
+/// ```
+/// use provenance_core::classifier::{FitOptions, Solver};
+/// assert_eq!(FitOptions::default().solver, Solver::Auto);
+/// assert_eq!(Solver::Auto.resolve(4 * 7), Solver::Newton);
+/// assert_eq!(Solver::Auto.resolve(20 * 7), Solver::Lbfgs);
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum Solver {
+    /// Newton for up to [`NEWTON_MAX_PARAMETERS`] parameters, L-BFGS above.
+    #[default]
+    Auto,
+    /// Damped Newton steps on the exact objective from zero (Nocedal & Wright 2006, §3.1).
+    Newton,
+    /// linfa-logistic's L-BFGS, finished by Newton steps when it stops short.
+    Lbfgs,
+}
+
+impl Solver {
+    /// The solver used for a problem of `parameters` parameters.
+    pub fn resolve(self, parameters: usize) -> Solver {
+        match self {
+            Solver::Auto if parameters <= NEWTON_MAX_PARAMETERS => Solver::Newton,
+            Solver::Auto => Solver::Lbfgs,
+            other => other,
+        }
+    }
+}
+
 /// How to fit.
 ///
 /// The objective is the mean over samples of −ln p(true class), plus (α/2n)·‖W‖² with the
@@ -34,10 +71,13 @@ pub const DEFAULT_TOLERANCE: f64 = 1e-6;
 pub struct FitOptions {
     /// L2 penalty α (0 for unpenalised maximum likelihood).
     pub l2: f64,
-    /// L-BFGS iterations of linfa-logistic.
+    /// L-BFGS iterations of linfa-logistic (with the L-BFGS solver).
     pub max_iterations: u64,
-    /// Newton steps allowed to finish the fit when L-BFGS stops short of the tolerance.
+    /// Newton steps allowed: the whole fit with the Newton solver; with L-BFGS, the steps
+    /// that finish the fit when it stops short.
     pub newton_steps: u32,
+    /// The optimiser.
+    pub solver: Solver,
     /// Convergence tolerance on the largest gradient component (see [`DEFAULT_TOLERANCE`]).
     pub tolerance: f64,
 }
@@ -49,6 +89,7 @@ impl Default for FitOptions {
             max_iterations: 500,
             newton_steps: 50,
             tolerance: DEFAULT_TOLERANCE,
+            solver: Solver::Auto,
         }
     }
 }
@@ -85,7 +126,8 @@ pub struct Convergence {
     pub objective: f64,
     /// The mean log-loss on the training data (without the penalty).
     pub training_log_loss: f64,
-    /// Newton steps taken after L-BFGS (0 when L-BFGS alone met the tolerance).
+    /// Newton steps taken: the whole fit with the Newton solver; after L-BFGS, the steps that
+    /// finished it (0 when L-BFGS alone met the tolerance).
     pub newton_steps: u32,
 }
 
@@ -176,6 +218,38 @@ fn diverges(
     doubled <= objective_here + 1e-12 * objective_here.max(1.0)
 }
 
+/// linfa-logistic's L-BFGS fit, as parameters laid out class by class (w₁ … w_d, b).
+fn lbfgs(set: &TrainingSet, class_of: &[usize], options: &FitOptions) -> Result<Vec<f64>> {
+    let (n, d, k) = (set.len(), set.space().dimension(), set.classes().len());
+    let refuse = |message: String, expected: &str| Error::Training {
+        file: set.name().to_string(),
+        message,
+        expected: expected.into(),
+    };
+    let flat: Vec<f64> = set.features().iter().flatten().copied().collect();
+    let x = Array2::from_shape_vec((n, d), flat).map_err(|e| {
+        refuse(
+            format!("feature table has the wrong shape ({e})"),
+            "one row per sample",
+        )
+    })?;
+    let data = Dataset::new(x, Array1::from(class_of.to_vec()));
+    let params = MultiLogisticRegression::default()
+        .alpha(options.l2)
+        .max_iterations(options.max_iterations)
+        // linfa stops on the L2 norm of the summed gradient; n·tol makes that at least as
+        // strict as our check on the mean gradient's largest component.
+        .gradient_tolerance(options.tolerance * n as f64);
+    let fitted = params
+        .fit(&data)
+        .map_err(|e| refuse(format!("the solver failed ({e})"), "finite features"))?;
+    let (w, b) = (fitted.params(), fitted.intercept());
+    let weights: Vec<Vec<f64>> = (0..k)
+        .map(|c| (0..d).map(|j| w[[j, c]]).collect())
+        .collect();
+    Ok(pack(&weights, &b.to_vec()))
+}
+
 /// Fit a multinomial logistic regression to a training set.
 ///
 /// linfa-logistic's L-BFGS runs up to `max_iterations`. If our gradient check on its solution
@@ -213,55 +287,52 @@ pub fn fit(set: &TrainingSet, options: &FitOptions) -> Result<LogisticFit> {
         ));
     }
     let d = set.space().dimension();
-    let n = set.len();
     let class_of: Vec<usize> = set
         .labels()
         .iter()
         .map(|l| classes.binary_search(l).unwrap_or(0))
         .collect();
-    let flat: Vec<f64> = set.features().iter().flatten().copied().collect();
-    let x = Array2::from_shape_vec((n, d), flat).map_err(|e| {
-        refuse(
-            format!("feature table has the wrong shape ({e})"),
-            "one row per sample",
-        )
-    })?;
-    let data = Dataset::new(x, Array1::from(class_of.clone()));
-    let params = MultiLogisticRegression::default()
-        .alpha(options.l2)
-        .max_iterations(options.max_iterations)
-        // linfa stops on the L2 norm of the summed gradient; n·tol makes that at least as
-        // strict as our check on the mean gradient's largest component.
-        .gradient_tolerance(options.tolerance * n as f64);
-    let fitted = params
-        .fit(&data)
-        .map_err(|e| refuse(format!("the solver failed ({e})"), "finite features"))?;
-    let (w, b) = (fitted.params(), fitted.intercept());
     let k = classes.len();
-    let weights: Vec<Vec<f64>> = (0..k)
-        .map(|c| (0..d).map(|j| w[[j, c]]).collect())
-        .collect();
-    let mut theta = pack(&weights, &b.to_vec());
-    let mut steps = 0;
-    let (_, _, g0) = objective(set, &class_of, &weights, &b.to_vec(), options.l2);
-    if g0 > options.tolerance {
-        let pr = Problem {
-            x: set.features(),
-            y: &class_of,
-            k,
-            d,
-            l2: options.l2,
-        };
-        steps = polish(&pr, &mut theta, options.tolerance, options.newton_steps);
-    }
+    let pr = Problem {
+        x: set.features(),
+        y: &class_of,
+        k,
+        d,
+        l2: options.l2,
+    };
+    let solver = options.solver.resolve(k * (d + 1));
+    let (theta, steps) = match solver {
+        Solver::Lbfgs => {
+            let mut theta = lbfgs(set, &class_of, options)?;
+            let g0 = evaluate(&pr, &theta, false)
+                .gradient
+                .iter()
+                .fold(0.0f64, |a, v| a.max(v.abs()));
+            let mut steps = 0;
+            if g0 > options.tolerance {
+                steps = polish(&pr, &mut theta, options.tolerance, options.newton_steps);
+            }
+            (theta, steps)
+        }
+        _ => {
+            let mut theta = vec![0.0; k * (d + 1)];
+            let steps = polish(&pr, &mut theta, options.tolerance, options.newton_steps);
+            (theta, steps)
+        }
+    };
     let (weights, intercepts) = unpack(&theta, k, d);
     let (obj, ll, gmax) = objective(set, &class_of, &weights, &intercepts, options.l2);
     if gmax > options.tolerance {
         return Err(refuse(
-            format!(
-                "the fit did not converge in {} L-BFGS iterations and {steps} Newton steps (largest gradient component {gmax:.3e})",
-                options.max_iterations
-            ),
+            match solver {
+                Solver::Lbfgs => format!(
+                    "the fit did not converge in {} L-BFGS iterations and {steps} Newton steps (largest gradient component {gmax:.3e})",
+                    options.max_iterations
+                ),
+                _ => format!(
+                    "the fit did not converge in {steps} Newton steps (largest gradient component {gmax:.3e})"
+                ),
+            },
             &format!(
                 "a gradient of at most {:.1e}; with --l2 0 the classes may be separable: give a positive --l2",
                 options.tolerance

@@ -55,7 +55,10 @@ mod training;
 
 pub use cv::{cross_validate, CrossValidation, DEFAULT_FOLDS, LOG_LOSS_FLOOR};
 pub use features::{FeatureProblem, FeatureSpace, FRAMEWORK_PARTS};
-pub use fit::{fit, Convergence, FitOptions, LogisticFit, DEFAULT_L2, DEFAULT_TOLERANCE};
+pub use fit::{
+    fit, Convergence, FitOptions, LogisticFit, Solver, DEFAULT_L2, DEFAULT_TOLERANCE,
+    NEWTON_MAX_PARAMETERS,
+};
 pub use from_fields::{
     default_model, default_training_set, COMPOSITIONS_PER_FIELD, DEFAULT_MODEL_NOTE,
     DEFAULT_MODEL_SEED, POINTS_PER_COMPOSITION,

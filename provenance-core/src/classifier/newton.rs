@@ -32,11 +32,13 @@ pub(crate) fn evaluate(pr: &Problem<'_>, theta: &[f64], with_hessian: bool) -> E
     let np = k * q;
     let n = x.len() as f64;
     let mut g = vec![0.0; np];
-    let mut h = if with_hessian {
-        vec![0.0; np * np]
-    } else {
-        Vec::new()
-    };
+    // The Hessian's (c, e) block is Σᵢ wᵢ,ce·xᵢxᵢᵀ with w = p_c(δ_ce − p_e): symmetric in the
+    // classes and within each block, so only the blocks c ≤ e and their upper triangles are
+    // summed over rows (k(k+1)/2 · q(q+1)/2 products a row instead of k²q²).
+    let tri = q * (q + 1) / 2;
+    let pairs = if with_hessian { k * (k + 1) / 2 } else { 0 };
+    let mut blocks = vec![0.0; pairs * tri];
+    let mut outer = vec![0.0; tri];
     let mut loss = 0.0;
     let mut logits = vec![0.0; k];
     let mut xt = vec![0.0; q];
@@ -64,26 +66,34 @@ pub(crate) fn evaluate(pr: &Problem<'_>, theta: &[f64], with_hessian: bool) -> E
             }
         }
         if with_hessian {
+            let mut t = 0;
+            for j in 0..q {
+                for l in j..q {
+                    outer[t] = xt[j] * xt[l];
+                    t += 1;
+                }
+            }
+            let mut b = 0;
             for c in 0..k {
-                for e in 0..k {
+                for e in c..k {
                     let w = if c == e {
                         p[c] * (1.0 - p[c])
                     } else {
                         -p[c] * p[e]
                     };
-                    if w == 0.0 {
-                        continue;
+                    for (acc, o) in blocks[b * tri..(b + 1) * tri].iter_mut().zip(&outer) {
+                        *acc += w * o;
                     }
-                    for j in 0..q {
-                        let base = (c * q + j) * np + e * q;
-                        for l in 0..q {
-                            h[base + l] += w * xt[j] * xt[l];
-                        }
-                    }
+                    b += 1;
                 }
             }
         }
     }
+    let mut h = if with_hessian {
+        expand(&blocks, k, q)
+    } else {
+        Vec::new()
+    };
     let mut penalty = 0.0;
     for c in 0..k {
         for j in 0..d {
@@ -107,6 +117,31 @@ pub(crate) fn evaluate(pr: &Problem<'_>, theta: &[f64], with_hessian: bool) -> E
         gradient: g,
         hessian: h,
     }
+}
+
+/// The full k·q × k·q Hessian from the summed upper triangles of its blocks c ≤ e.
+fn expand(blocks: &[f64], k: usize, q: usize) -> Vec<f64> {
+    let (np, tri) = (k * q, q * (q + 1) / 2);
+    let mut h = vec![0.0; np * np];
+    let mut b = 0;
+    for c in 0..k {
+        for e in c..k {
+            let block = &blocks[b * tri..(b + 1) * tri];
+            let mut t = 0;
+            for j in 0..q {
+                for l in j..q {
+                    let v = block[t];
+                    t += 1;
+                    for (r, s) in [(c * q + j, e * q + l), (c * q + l, e * q + j)] {
+                        h[r * np + s] = v;
+                        h[s * np + r] = v;
+                    }
+                }
+            }
+            b += 1;
+        }
+    }
+    h
 }
 
 /// Solve (H + εI)·s = g by Cholesky, with ε raised until the factorisation succeeds (the

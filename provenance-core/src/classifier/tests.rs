@@ -354,6 +354,7 @@ fn running_out_of_iterations_is_refused() {
     let opts = FitOptions {
         max_iterations: 1,
         newton_steps: 0,
+        solver: Solver::Lbfgs,
         ..Default::default()
     };
     let e = fit(&three_classes(), &opts).unwrap_err().to_string();
@@ -361,6 +362,43 @@ fn running_out_of_iterations_is_refused() {
         e.contains("did not converge in 1 L-BFGS iterations and 0 Newton steps"),
         "{e}"
     );
+    let newton = FitOptions {
+        newton_steps: 2,
+        solver: Solver::Newton,
+        ..Default::default()
+    };
+    let e = fit(&three_classes(), &newton).unwrap_err().to_string();
+    assert!(e.contains("did not converge in 2 Newton steps"), "{e}");
+}
+
+#[test]
+fn newton_and_lbfgs_reach_the_same_optimum() {
+    // Both solvers minimise one objective: at the tolerance their objectives agree to about
+    // tolerance² and their coefficients closely.
+    let t = three_classes();
+    let run = |solver| {
+        fit(
+            &t,
+            &FitOptions {
+                solver,
+                ..Default::default()
+            },
+        )
+        .unwrap()
+    };
+    let (newton, lbfgs) = (run(Solver::Newton), run(Solver::Lbfgs));
+    assert_eq!(run(Solver::Auto), newton, "9 parameters: Auto means Newton");
+    let gap = (newton.convergence.objective - lbfgs.convergence.objective).abs();
+    assert!(gap < 1e-10, "objectives differ by {gap:e}");
+    for (a, b) in newton
+        .weights
+        .iter()
+        .flatten()
+        .zip(lbfgs.weights.iter().flatten())
+    {
+        assert!((a - b).abs() < 1e-4, "{a} vs {b}");
+    }
+    assert!(newton.convergence.newton_steps > 0);
 }
 
 #[test]

@@ -381,7 +381,8 @@ pub(crate) const CITATION: &str = "Classifier: multinomial logistic regression (
 (1958) The regression analysis of binary sequences. Journal of the Royal Statistical Society B \
 20:215-242; from memory) on the ilr coordinates of the composition (Egozcue et al. 2003) after \
 multiplicative replacement of zeros (Martín-Fernández et al. 2003), fitted by L2-penalised \
-maximum likelihood (linfa-logistic, finished by Newton steps). Treating provenance fields as a \
+maximum likelihood (damped Newton steps; Nocedal, J. & Wright, S.J. (2006) Numerical \
+Optimization, 2nd ed., Springer; L-BFGS by linfa-logistic for larger problems). Treating provenance fields as a \
 classifier refitted by multinomial logistic regression on log-ratios of sands of known setting \
 follows Weltje, G.J. (2006) Ternary sandstone composition and provenance: an evaluation of the \
 'Dickinson model'. Geological Society, London, Special Publications 264:79-99 (details from \
