@@ -4,6 +4,7 @@
 
 use provenance_core::classifier::{fit, FeatureSpace, FitOptions, Model, TrainingSet};
 use provenance_core::input::{CountReader, ReadOptions};
+use sandprov_tests::{assert_no_file, run};
 use std::path::PathBuf;
 
 const SKLEARN: &str = include_str!("../peers/sklearn_logistic.json");
@@ -80,31 +81,14 @@ fn probabilities_equal_scikit_learn_within_1e_4() {
 fn train_command_writes_a_model_that_reproduces_scikit_learn() {
     let dir = tempfile::tempdir().unwrap();
     let out = dir.path().join("model.json");
-    let run = assert_cmd::Command::cargo_bin("sandprov")
-        .unwrap()
-        .args([
-            "train",
-            data_path().to_str().unwrap(),
-            "--label",
-            "group",
-            "--diagram",
-            "qfl",
-            "--l2",
-            "0",
-            "--folds",
-            "3",
-            "-o",
-        ])
+    run(["train"])
+        .arg(data_path())
+        .args(["--label", "group", "--diagram", "qfl", "--l2", "0"])
+        .args(["--folds", "3", "-o"])
         .arg(&out)
         .env("SOURCE_DATE_EPOCH", "1735689600")
-        .assert()
-        .success();
-    let stdout = String::from_utf8(run.get_output().stdout.clone()).unwrap();
-    assert!(
-        stdout.contains("3-fold cross-validation: accuracy"),
-        "{stdout}"
-    );
-    assert!(stdout.contains("confusion matrix"), "{stdout}");
+        .ok()
+        .stdout_has(&["3-fold cross-validation: accuracy", "confusion matrix"]);
     let model = Model::load(&out).unwrap();
     assert_eq!(model.training.date, "2025-01-01");
     assert_eq!(model.training.samples, 90);
@@ -151,17 +135,12 @@ fn train_command_refuses_bad_requests_with_exit_codes() {
         ),
     ];
     for (args, code, needle) in cases {
-        let r = assert_cmd::Command::cargo_bin("sandprov")
-            .unwrap()
-            .arg("train")
+        run(["train"])
             .arg(&data)
             .args(args)
             .arg("-o")
             .arg(&out)
-            .assert()
-            .code(code);
-        let err = String::from_utf8(r.get_output().stderr.clone()).unwrap();
-        assert!(err.contains(needle), "{args:?}: {err}");
-        assert!(!out.exists(), "nothing is written on failure");
+            .refused(code, &[needle]);
+        assert_no_file(&out);
     }
 }

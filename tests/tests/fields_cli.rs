@@ -5,20 +5,8 @@
 //! fields so that the placements checked are the published arrangement (Dickinson & Suczek
 //! 1979; Dickinson 1985), not fine boundary positions. Sample data are invented.
 
-use assert_cmd::Command;
-use predicates::prelude::*;
+use sandprov_tests::{assert_no_file, reference_fields, run, Sandbox};
 use serde_json::Value;
-use std::path::{Path, PathBuf};
-
-fn sandprov() -> Command {
-    Command::new(sandprov_tests::sandprov_path())
-}
-
-fn reference(file: &str) -> PathBuf {
-    Path::new(env!("CARGO_MANIFEST_DIR"))
-        .join("../reference-fields")
-        .join(file)
-}
 
 const SHIPPED: [&str; 4] = [
     "dickinson1985-qfl",
@@ -37,21 +25,9 @@ INV-04,0,6,4,0,0,250,20,20,Lower
 INV-05,20,0,0,100,80,60,20,20,Middle
 ";
 
-fn write(dir: &Path, name: &str, text: &str) -> PathBuf {
-    let p = dir.join(name);
-    std::fs::write(&p, text).unwrap();
-    p
-}
-
-fn json(out: &[u8]) -> Value {
-    serde_json::from_slice(out)
-        .unwrap_or_else(|e| panic!("not JSON ({e}):\n{}", String::from_utf8_lossy(out)))
-}
-
 #[test]
 fn list_gives_id_then_title_per_embedded_set() {
-    let out = sandprov().args(["fields", "list"]).assert().success();
-    let text = String::from_utf8(out.get_output().stdout.clone()).unwrap();
+    let text = run(["fields", "list"]).ok().stdout();
     let lines: Vec<&str> = text.lines().collect();
     assert_eq!(lines.len(), SHIPPED.len(), "{text}");
     for (line, id) in lines.iter().zip(SHIPPED) {
@@ -63,11 +39,9 @@ fn list_gives_id_then_title_per_embedded_set() {
 
 #[test]
 fn show_json_has_exactly_the_documented_keys() {
-    let out = sandprov()
-        .args(["fields", "show", "dickinson1985-qfl", "--format", "json"])
-        .assert()
-        .success();
-    let v = json(&out.get_output().stdout);
+    let v = run(["fields", "show", "dickinson1985-qfl", "--format", "json"])
+        .ok()
+        .json();
     let keys: Vec<&str> = v.as_object().unwrap().keys().map(String::as_str).collect();
     let mut want = vec!["id", "diagram", "poles", "source", "note", "fields"];
     let mut got = keys.clone();
@@ -102,11 +76,9 @@ fn show_json_has_exactly_the_documented_keys() {
         }
     }
     // The 10 QmFLt fields, with their Qm-F-Lt poles.
-    let out = sandprov()
-        .args(["fields", "show", "dickinson1985-qmflt", "--format", "json"])
-        .assert()
-        .success();
-    let v = json(&out.get_output().stdout);
+    let v = run(["fields", "show", "dickinson1985-qmflt", "--format", "json"])
+        .ok()
+        .json();
     assert_eq!(v["fields"].as_array().unwrap().len(), 10);
     assert_eq!(v["poles"], serde_json::json!(["Qm", "F", "Lt"]));
 }
@@ -114,121 +86,89 @@ fn show_json_has_exactly_the_documented_keys() {
 #[test]
 fn every_shipped_file_passes_the_check() {
     for id in SHIPPED {
-        let file = reference(&format!("{id}.toml"));
-        sandprov()
-            .args(["fields", "check"])
+        let file = reference_fields(&format!("{id}.toml"));
+        let ran = run(["fields", "check"])
             .arg(&file)
-            .assert()
-            .success()
-            .stdout(predicate::str::contains("overlap: 0.000 pp²"))
-            .stdout(predicate::str::contains("uncovered:"))
-            .stdout(predicate::str::ends_with("valid\n"));
+            .ok()
+            .stdout_has(&["overlap: 0.000 pp²", "uncovered:"]);
+        assert!(ran.stdout().ends_with("valid\n"), "{ran}");
     }
     // QFL and QmFLt leave no ground uncovered.
     for id in ["dickinson1985-qfl", "dickinson1985-qmflt"] {
-        sandprov()
-            .args(["fields", "check", id])
-            .assert()
-            .success()
-            .stdout(predicate::str::contains(
-                "uncovered: 0.000 pp² (0.000% of the triangle) in 0 region(s)",
-            ));
+        run(["fields", "check", id])
+            .ok()
+            .stdout_has(&["uncovered: 0.000 pp² (0.000% of the triangle) in 0 region(s)"]);
     }
     // The QmPK gap is measured and located: the triangle Qm 70, P 15, K 15 / P 75, K 25 /
     // P 50, K 50, area ½ · 25 · 70 · √3/2 = 757.772 (hand value).
-    sandprov()
-        .args(["fields", "check", "dickinson-suczek1979-qmpk"])
-        .assert()
-        .success()
-        .stdout(predicate::str::contains("gap 1: 757.772 pp² (17.500%)"))
-        .stdout(predicate::str::contains("reaching the P-K side"));
+    run(["fields", "check", "dickinson-suczek1979-qmpk"])
+        .ok()
+        .stdout_has(&["gap 1: 757.772 pp² (17.500%)", "reaching the P-K side"]);
 }
 
 const HEAD: &str = "id = \"lab\"\ntitle = \"Lab set\"\ndiagram = \"qfl\"\nnote = \"Invented for a test.\"\n[source]\nauthor = \"Nobody\"\nyear = 2024\nfigure = \"none\"\nreference = \"none\"\n";
 
 #[test]
 fn check_refuses_overlapping_fields_and_reports_the_area() {
-    let dir = tempfile::tempdir().unwrap();
+    let sb = Sandbox::new();
     // Q ≥ 40 and F ≥ 40 overlap in a triangle of side 20: 0.04 · 4330.127 = 173.205.
     let text = format!(
         "{HEAD}[[fields]]\nname = \"q\"\ngroup = \"mixed\"\nvertices = [[100, 0, 0], [40, 60, 0], [40, 0, 60]]\n[[fields]]\nname = \"f\"\ngroup = \"mixed\"\nvertices = [[0, 100, 0], [0, 40, 60], [60, 40, 0]]\n"
     );
-    let file = write(dir.path(), "overlap.toml", &text);
-    sandprov()
-        .args(["fields", "check"])
+    let file = sb.write("overlap.toml", &text);
+    sb.run(["fields", "check"])
         .arg(&file)
-        .assert()
-        .code(3)
-        .stdout(predicate::str::contains(
+        .refused(3, &["overlap.toml, line 15, column 8 (\"name\")"])
+        .stdout_has(&[
             "overlap: 173.205 pp² (4.000% of the triangle)",
-        ))
-        .stdout(predicate::str::contains(
             "uncovered: 1385.641 pp² (32.000% of the triangle)",
-        ))
-        .stderr(predicate::str::contains(
-            "overlap.toml, line 15, column 8 (\"name\")",
-        ));
+        ]);
 }
 
 #[test]
 fn check_names_line_key_value_and_expectation_of_bad_vertices() {
-    let dir = tempfile::tempdir().unwrap();
+    let sb = Sandbox::new();
     let text = format!(
         "{HEAD}[[fields]]\nname = \"q\"\ngroup = \"mixed\"\nvertices = [[100, 0, 0], [40, 50, 0], [40, 0, 60]]\n"
     );
-    let file = write(dir.path(), "sum.toml", &text);
-    sandprov()
-        .args(["fields", "check"])
-        .arg(&file)
-        .assert()
-        .code(3)
-        .stderr(predicate::str::contains(
+    let file = sb.write("sum.toml", &text);
+    sb.run(["fields", "check"]).arg(&file).refused(
+        3,
+        &[
             "sum.toml, line 13, column 26 (\"vertices\")",
-        ))
-        .stderr(predicate::str::contains("[40, 50, 0] and sums to 90"))
-        .stderr(predicate::str::contains(
+            "[40, 50, 0] and sums to 90",
             "expected [Q, F, L] each from 0 to 100, summing to 100 ± 0.01",
-        ));
-    let file = write(
-        dir.path(),
-        "group.toml",
-        &text.replace("\"mixed\"", "\"volcanic\""),
+        ],
     );
-    sandprov()
-        .args(["fields", "check"])
-        .arg(&file)
-        .assert()
-        .code(3)
-        .stderr(predicate::str::contains(
+    let file = sb.write("group.toml", text.replace("\"mixed\"", "\"volcanic\""));
+    sb.run(["fields", "check"]).arg(&file).refused(
+        3,
+        &[
             "group.toml, line 12, column 9 (\"group\")",
-        ))
-        .stderr(predicate::str::contains("\"volcanic\""))
-        .stderr(predicate::str::contains(
+            "\"volcanic\"",
             "expected one of continental block",
-        ));
+        ],
+    );
 }
 
 #[test]
 fn unknown_set_id_is_a_usage_error() {
-    sandprov()
-        .args(["fields", "show", "qfl-fields"])
-        .assert()
-        .code(2)
-        .stderr(predicate::str::contains("unknown field set \"qfl-fields\""))
-        .stderr(predicate::str::contains("dickinson1985-qmflt"));
+    run(["fields", "show", "qfl-fields"]).refused(
+        2,
+        &["unknown field set \"qfl-fields\"", "dickinson1985-qmflt"],
+    );
 }
 
 #[test]
 fn setting_json_places_samples_and_interprets_them() {
-    let dir = tempfile::tempdir().unwrap();
-    let counts = write(dir.path(), "counts.csv", COUNTS);
-    let out = sandprov()
-        .arg("setting")
+    let sb = Sandbox::new();
+    let counts = sb.write("counts.csv", COUNTS);
+    let v = sb
+        .run(["setting"])
         .arg(&counts)
         .args(["--format", "json"])
-        .assert()
-        .success();
-    let v = json(&out.get_output().stdout);
+        .ok()
+        .json();
     let rows = v.as_array().unwrap();
     assert_eq!(rows.len(), 5);
     let (quartz, arc, recycled, lithic, gap) = (&rows[0], &rows[1], &rows[2], &rows[3], &rows[4]);
@@ -291,60 +231,52 @@ fn setting_json_places_samples_and_interprets_them() {
 
 #[test]
 fn setting_with_chosen_sets_and_a_lab_file() {
-    let dir = tempfile::tempdir().unwrap();
-    let counts = write(dir.path(), "counts.csv", COUNTS);
+    let sb = Sandbox::new();
+    let counts = sb.write("counts.csv", COUNTS);
     // Only QFL, by id: only its key appears.
-    let out = sandprov()
-        .arg("setting")
+    let v = sb
+        .run(["setting"])
         .arg(&counts)
         .args(["--fields", "dickinson1985-qfl", "--format", "json"])
-        .assert()
-        .success();
-    let v = json(&out.get_output().stdout);
+        .ok()
+        .json();
     assert!(v[0].get("qfl").is_some() && v[0].get("qmflt").is_none());
     // A lab's own file: two fields split at Q = 50.
     let lab = format!(
         "{HEAD}[[fields]]\nname = \"quartz-rich\"\ngroup = \"continental block\"\nvertices = [[100, 0, 0], [50, 50, 0], [50, 0, 50]]\n[[fields]]\nname = \"quartz-poor\"\ngroup = \"magmatic arc\"\nvertices = [[50, 50, 0], [0, 100, 0], [0, 0, 100], [50, 0, 50]]\n"
     );
-    let file = write(dir.path(), "lab.toml", &lab);
-    let out = sandprov()
-        .arg("setting")
+    let file = sb.write("lab.toml", &lab);
+    let v = sb
+        .run(["setting"])
         .arg(&counts)
         .arg("--fields")
         .arg(&file)
         .args(["--fields", "dickinson1985-qmflt", "--format", "json"])
-        .assert()
-        .success();
-    let v = json(&out.get_output().stdout);
+        .ok()
+        .json();
     assert_eq!(v[0]["qfl"]["field"], "quartz-rich");
     assert_eq!(v[0]["qfl"]["fields"], "lab");
     assert_eq!(v[1]["qfl"]["field"], "quartz-poor");
     assert_eq!(v[0]["qmflt"]["field"], "craton interior");
     // Two sets for one diagram are refused.
-    sandprov()
-        .arg("setting")
+    sb.run(["setting"])
         .arg(&counts)
         .arg("--fields")
         .arg(&file)
         .args(["--fields", "dickinson1985-qfl"])
-        .assert()
-        .code(2)
-        .stderr(predicate::str::contains("both for the qfl diagram"));
+        .refused(2, &["both for the qfl diagram"]);
 }
 
 #[test]
 fn setting_csv_is_flat_and_written_whole_or_not_at_all() {
-    let dir = tempfile::tempdir().unwrap();
-    let counts = write(dir.path(), "counts.csv", COUNTS);
-    let out = dir.path().join("setting.csv");
-    sandprov()
-        .arg("setting")
+    let sb = Sandbox::new();
+    let counts = sb.write("counts.csv", COUNTS);
+    sb.run(["setting"])
         .arg(&counts)
         .arg("-o")
-        .arg(&out)
-        .assert()
-        .success();
-    let text = std::fs::read_to_string(&out).unwrap();
+        .arg(sb.path("setting.csv"))
+        .ok();
+    let text = sb.read("setting.csv");
     let mut lines = text.lines();
     let header: Vec<&str> = lines.next().unwrap().split(',').collect();
     assert_eq!(
@@ -366,97 +298,73 @@ fn setting_csv_is_flat_and_written_whole_or_not_at_all() {
     assert_eq!(text.lines().count(), 6);
 
     // A bad row: exit 3, the message names file, line and column, nothing is written.
-    let bad = write(
-        dir.path(),
-        "bad.csv",
-        &COUNTS.replace("INV-03,160", "INV-03,-160"),
-    );
-    let out2 = dir.path().join("never.csv");
-    sandprov()
-        .arg("setting")
+    let bad = sb.write("bad.csv", COUNTS.replace("INV-03,160", "INV-03,-160"));
+    let out2 = sb.path("never.csv");
+    sb.run(["setting"])
         .arg(&bad)
         .arg("-o")
         .arg(&out2)
-        .assert()
-        .code(3)
-        .stderr(predicate::str::contains(
-            "bad.csv, line 4, column 2 (\"Qm\")",
-        ));
-    assert!(!out2.exists());
+        .refused(3, &["bad.csv, line 4, column 2 (\"Qm\")"]);
+    assert_no_file(&out2);
     // The output may not be one of the inputs, field-set files included.
-    let lab = write(
-        dir.path(),
+    let lab = sb.write(
         "lab.toml",
-        &std::fs::read_to_string(reference("dickinson1985-qfl.toml")).unwrap(),
+        std::fs::read_to_string(reference_fields("dickinson1985-qfl.toml")).unwrap(),
     );
-    sandprov()
-        .arg("setting")
+    sb.run(["setting"])
         .arg(&counts)
         .arg("--fields")
         .arg(&lab)
         .arg("-o")
         .arg(&lab)
-        .assert()
-        .code(2);
-    assert!(std::fs::read_to_string(&lab)
-        .unwrap()
-        .contains("dickinson1985-qfl"));
+        .refused(2, &[]);
+    assert!(sb.read("lab.toml").contains("dickinson1985-qfl"));
 }
 
 #[test]
 fn setting_refuses_an_invalid_lab_file() {
-    let dir = tempfile::tempdir().unwrap();
-    let counts = write(dir.path(), "counts.csv", COUNTS);
+    let sb = Sandbox::new();
+    let counts = sb.write("counts.csv", COUNTS);
     let bow = format!(
         "{HEAD}[[fields]]\nname = \"bow\"\ngroup = \"mixed\"\nvertices = [[0, 100, 0], [50, 0, 50], [50, 50, 0], [0, 50, 50]]\n"
     );
-    let file = write(dir.path(), "bow.toml", &bow);
-    sandprov()
-        .arg("setting")
+    let file = sb.write("bow.toml", &bow);
+    sb.run(["setting"])
         .arg(&counts)
         .arg("--fields")
         .arg(&file)
-        .assert()
-        .code(3)
-        .stderr(predicate::str::contains("bow.toml, line 13"))
-        .stderr(predicate::str::contains(
-            "not a simple polygon: edge 1 and edge 3 meet at [25.000, 50.000, 25.000]",
-        ));
+        .refused(
+            3,
+            &[
+                "bow.toml, line 13",
+                "not a simple polygon: edge 1 and edge 3 meet at [25.000, 50.000, 25.000]",
+            ],
+        );
 }
 
 #[test]
 fn embedded_sets_equal_their_files() {
     for id in SHIPPED {
-        let by_id = sandprov()
-            .args(["fields", "show", id, "--format", "json"])
-            .assert()
-            .success();
-        let by_file = sandprov()
-            .args(["fields", "show", "--format", "json"])
-            .arg(reference(&format!("{id}.toml")))
-            .assert()
-            .success();
-        assert_eq!(
-            by_id.get_output().stdout,
-            by_file.get_output().stdout,
-            "{id}"
-        );
+        let by_id = run(["fields", "show", id, "--format", "json"]).ok();
+        let by_file = run(["fields", "show", "--format", "json"])
+            .arg(reference_fields(&format!("{id}.toml")))
+            .ok();
+        assert_eq!(by_id.output.stdout, by_file.output.stdout, "{id}");
     }
 }
 
 #[test]
 fn setting_reads_published_percentages() {
     // A published table in percent of the framework, without point totals (invented values).
-    let dir = tempfile::tempdir().unwrap();
+    let sb = Sandbox::new();
     let table = "sample;Qm;Qp;P;K;Lv;Ls;Lm\nPUB-1;20;2;35;5;30;4;4\nPUB-2;96;2;0,5;0,5;0;0,5;0,5\n";
-    let counts = write(dir.path(), "published.csv", table);
-    let out = sandprov()
-        .arg("setting")
+    let counts = sb.write("published.csv", table);
+    let v = sb
+        .run(["setting"])
         .arg(&counts)
         .args(["--percent", "--format", "json"])
-        .assert()
-        .success();
-    let v = json(&out.get_output().stdout);
+        .ok()
+        .json();
     assert_eq!(v[0]["qfl"]["group"], "magmatic arc");
     assert_eq!(v[1]["qfl"]["field"], "craton interior");
 }

@@ -1,6 +1,5 @@
 //! `sandprov modes` and `sandprov plan`, run as a user would.
 
-use predicates::prelude::*;
 use sandprov_tests::{demo_counts, Sandbox};
 
 const HEAD: &str = "sample,Qm,Qp,C,P,K,Lv,Ls,Lm,formation";
@@ -8,14 +7,7 @@ const HEAD: &str = "sample,Qm,Qp,C,P,K,Lv,Ls,Lm,formation";
 #[test]
 fn modes_csv_on_the_demo_has_one_row_per_sample() {
     let sb = Sandbox::new();
-    let out = sb
-        .sandprov()
-        .arg("modes")
-        .arg(demo_counts())
-        .output()
-        .unwrap();
-    assert!(out.status.success());
-    let text = String::from_utf8(out.stdout).unwrap();
+    let text = sb.run(["modes"]).arg(demo_counts()).ok().stdout();
     let mut lines = text.lines();
     let header = lines.next().unwrap();
     assert!(header.starts_with(
@@ -32,18 +24,11 @@ fn modes_json_is_the_stable_interface() {
         "c.csv",
         format!("{HEAD}\nKR-1,240,8,4,50,33,40,20,17,Upper\n"),
     );
-    let out = sb
-        .sandprov()
-        .args(["modes", "--format", "json"])
+    let v = sb
+        .run(["modes", "--format", "json"])
         .arg(&input)
-        .output()
-        .unwrap();
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
-    );
-    let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+        .ok()
+        .json();
     let s = &v[0];
     assert_eq!(s["sample"], "KR-1");
     assert_eq!(s["qfl"]["n"], 412);
@@ -74,14 +59,10 @@ fn bad_input_exits_3_and_names_the_place() {
         "bad.csv",
         format!("{HEAD}\nA,1,1,1,1,1,1,1,1,x\nB,1,1,1,-4,1,1,1,1,y\n"),
     );
-    sb.sandprov()
-        .arg("modes")
-        .arg(&input)
-        .assert()
-        .code(3)
-        .stderr(predicate::str::contains(
-            "bad.csv, line 3, column 5 (\"P\"): found \"-4\", expected a whole number",
-        ));
+    sb.run(["modes"]).arg(&input).refused(
+        3,
+        &["bad.csv, line 3, column 5 (\"P\"): found \"-4\", expected a whole number"],
+    );
 }
 
 #[test]
@@ -93,12 +74,10 @@ fn failed_runs_leave_no_output_file() {
     }
     text.push_str("LAST,1,1,1,1,1,1,1,oops,x\n");
     let input = sb.write("big.csv", text);
-    sb.sandprov()
-        .arg("modes")
+    sb.run(["modes"])
         .arg(&input)
         .args(["-o", "out.csv"])
-        .assert()
-        .code(3);
+        .refused(3, &[]);
     assert_eq!(
         sb.files(),
         ["big.csv"],
@@ -111,11 +90,8 @@ fn an_output_equal_to_the_input_is_refused() {
     let sb = Sandbox::new();
     let text = format!("{HEAD}\nA,1,1,1,1,1,1,1,1,x\n");
     let input = sb.write("c.csv", &text);
-    sb.sandprov()
-        .args(["modes", "c.csv", "-o", "./c.csv"])
-        .assert()
-        .code(2)
-        .stderr(predicate::str::contains("is also an input"));
+    sb.run(["modes", "c.csv", "-o", "./c.csv"])
+        .refused(2, &["is also an input"]);
     assert_eq!(std::fs::read_to_string(input).unwrap(), text);
 }
 
@@ -123,12 +99,9 @@ fn an_output_equal_to_the_input_is_refused() {
 fn successful_output_is_written_whole() {
     let sb = Sandbox::new();
     sb.write("c.csv", format!("{HEAD}\nA,1,1,1,1,1,1,1,1,x\n"));
-    sb.sandprov()
-        .args(["modes", "c.csv", "-o", "m.json", "--format", "json"])
-        .assert()
-        .success();
-    let v: serde_json::Value =
-        serde_json::from_slice(&std::fs::read(sb.path("m.json")).unwrap()).unwrap();
+    sb.run(["modes", "c.csv", "-o", "m.json", "--format", "json"])
+        .ok();
+    let v = sb.read_json("m.json");
     assert_eq!(v.as_array().unwrap().len(), 1);
     assert_eq!(sb.files(), ["c.csv", "m.json"]);
 }
@@ -136,45 +109,29 @@ fn successful_output_is_written_whole() {
 #[test]
 fn missing_file_exits_4() {
     let sb = Sandbox::new();
-    sb.sandprov()
-        .args(["modes", "nope.csv"])
-        .assert()
-        .code(4)
-        .stderr(predicate::str::contains("cannot read nope.csv"));
+    sb.run(["modes", "nope.csv"])
+        .refused(4, &["cannot read nope.csv"]);
 }
 
 #[test]
 fn usage_errors_exit_2_and_help_lists_exit_codes() {
     let sb = Sandbox::new();
-    sb.sandprov().args(["modes"]).assert().code(2);
-    sb.sandprov()
-        .arg("--help")
-        .assert()
-        .success()
-        .stdout(predicate::str::contains("3  input refused"));
+    sb.run(["modes"]).refused(2, &[]);
+    sb.run(["--help"]).ok().stdout_has(&["3  input refused"]);
 }
 
 #[test]
 fn binary_garbage_is_refused_without_a_panic() {
     let sb = Sandbox::new();
     sb.write("g.csv", [0u8, 159, 146, 150, 0, 255, 10, 1, 2]);
-    sb.sandprov()
-        .args(["modes", "g.csv"])
-        .assert()
-        .code(3)
-        .stderr(predicate::str::contains("not UTF-8 text"));
+    sb.run(["modes", "g.csv"]).refused(3, &["not UTF-8 text"]);
 }
 
 #[test]
 fn intervals_add_wilson_and_clopper_pearson_columns() {
     let sb = Sandbox::new();
     sb.write("c.csv", format!("{HEAD}\nA,150,0,0,150,0,0,0,0,x\n"));
-    let out = sb
-        .sandprov()
-        .args(["modes", "c.csv", "--intervals"])
-        .output()
-        .unwrap();
-    let text = String::from_utf8(out.stdout).unwrap();
+    let text = sb.run(["modes", "c.csv", "--intervals"]).ok().stdout();
     let rows: Vec<Vec<&str>> = text.lines().map(|l| l.split(',').collect()).collect();
     let col = |name: &str| rows[0].iter().position(|h| *h == name).unwrap();
     // 150 of 300: SciPy 1.17.1 binomtest Wilson (44.38, 55.62), exact (44.20, 55.80)
@@ -189,13 +146,8 @@ fn intervals_add_wilson_and_clopper_pearson_columns() {
 fn plan_gives_points_needed() {
     let sb = Sandbox::new();
     // n = 4p(100 − p)/E² (Van der Plas & Tobi 1965): p = 50, E = 5 → 400.
-    sb.sandprov()
-        .args(["plan", "--proportion", "50", "--two-sigma", "5"])
-        .assert()
-        .success()
-        .stdout(predicate::str::contains("50,5,400"));
-    sb.sandprov()
-        .args(["plan", "--two-sigma", "0"])
-        .assert()
-        .code(2);
+    sb.run(["plan", "--proportion", "50", "--two-sigma", "5"])
+        .ok()
+        .stdout_has(&["50,5,400"]);
+    sb.run(["plan", "--two-sigma", "0"]).refused(2, &[]);
 }

@@ -3,8 +3,7 @@
 //! 192:545-563; checked), Pettijohn, Potter & Siever (1987; from memory). Sample ids are
 //! invented.
 
-use predicates::prelude::*;
-use sandprov_tests::{demo_counts, Sandbox};
+use sandprov_tests::{assert_no_file, demo_counts, Sandbox};
 use serde_json::Value;
 use std::fs;
 
@@ -26,15 +25,12 @@ T-3,140,10,0,60,70,8,6,6,0,Invented Upper Fm,95\n";
 fn json_names_every_sample_under_three_schemes() {
     let sb = Sandbox::new();
     let input = sb.write("counts.csv", COUNTS);
-    let out = sb
-        .sandprov()
-        .args(["name", input.to_str().unwrap(), "--format", "json"])
-        .assert()
-        .success()
-        .get_output()
-        .stdout
-        .clone();
-    let v: Value = serde_json::from_slice(&out).unwrap();
+    let v = sb
+        .run(["name"])
+        .arg(&input)
+        .args(["--format", "json"])
+        .ok()
+        .json();
     let names: Vec<[&str; 3]> = v
         .as_array()
         .unwrap()
@@ -76,15 +72,8 @@ fn csv_without_matrix_gives_null_pettijohn_with_the_reason() {
         "counts.csv",
         "sample,Qm,Qp,C,P,K,Lv,Ls,Lm\nT-4,230,10,0,25,20,5,5,5\n",
     );
-    let out = sb
-        .sandprov()
-        .args(["name", input.to_str().unwrap()])
-        .assert()
-        .success()
-        .get_output()
-        .stdout
-        .clone();
-    let mut r = csv::Reader::from_reader(out.as_slice());
+    let out = sb.run(["name"]).arg(&input).ok();
+    let mut r = csv::Reader::from_reader(out.output.stdout.as_slice());
     let h = r.headers().unwrap().clone();
     let row = r.records().next().unwrap().unwrap();
     let col = |n: &str| h.iter().position(|x| x == n).unwrap();
@@ -101,17 +90,13 @@ fn explain_writes_poles_and_rules_in_words() {
     let sb = Sandbox::new();
     let input = sb.write("counts.csv", COUNTS);
     let out = sb.path("names.txt");
-    sb.sandprov()
-        .args([
-            "name",
-            input.to_str().unwrap(),
-            "--explain",
-            "-o",
-            out.to_str().unwrap(),
-        ])
-        .assert()
-        .success()
-        .stdout("");
+    let ran = sb
+        .run(["name"])
+        .arg(&input)
+        .args(["--explain", "-o"])
+        .arg(&out)
+        .ok();
+    assert_eq!(ran.stdout(), "");
     let text = fs::read_to_string(&out).unwrap();
     assert!(text.contains("T-2 (line 3)\n  Folk (1980): litharenite; subtype volcanic arenite\n"));
     assert!(text.contains("R 70.0% (C + Lv + Ls + Lm, 210 points)"));
@@ -124,16 +109,10 @@ fn explain_writes_poles_and_rules_in_words() {
 fn explain_refuses_a_format() {
     let sb = Sandbox::new();
     let input = sb.write("counts.csv", COUNTS);
-    sb.sandprov()
-        .args([
-            "name",
-            input.to_str().unwrap(),
-            "--explain",
-            "--format",
-            "json",
-        ])
-        .assert()
-        .code(2);
+    sb.run(["name"])
+        .arg(&input)
+        .args(["--explain", "--format", "json"])
+        .refused(2, &[]);
 }
 
 /// The chert-placement check through the command line: Qm 270 and chert 30 is a
@@ -143,17 +122,12 @@ fn chert_option_moves_chert() {
     let sb = Sandbox::new();
     let input = sb.write("counts.csv", COUNTS);
     let run = |extra: &[&str]| -> Value {
-        let mut args = vec!["name", input.to_str().unwrap(), "--format", "json"];
-        args.extend_from_slice(extra);
-        serde_json::from_slice(
-            &sb.sandprov()
-                .args(&args)
-                .assert()
-                .success()
-                .get_output()
-                .stdout,
-        )
-        .unwrap()
+        sb.run(["name"])
+            .arg(&input)
+            .args(["--format", "json"])
+            .args(extra)
+            .ok()
+            .json()
     };
     assert_eq!(run(&[])[0]["folk"], "sublitharenite");
     let v = run(&["--chert", "folk=quartz", "--chert", "garzanti=lithic"]);
@@ -162,16 +136,14 @@ fn chert_option_moves_chert() {
     // Garzanti with chert in L: Q 90%, L 10% exactly (not above 10%): still quartzose.
     assert_eq!(v[0]["garzanti"], "quartzose");
     assert_eq!(v[0]["basis"]["garzanti"]["poles"]["L"]["percent"], 10.0);
-    sb.sandprov()
-        .args(["name", input.to_str().unwrap(), "--chert", "dott=quartz"])
-        .assert()
-        .code(2)
-        .stderr(predicate::str::contains("unknown naming scheme \"dott\""));
-    sb.sandprov()
-        .args(["name", input.to_str().unwrap(), "--chert", "folk=rock"])
-        .assert()
-        .code(2)
-        .stderr(predicate::str::contains("quartz, lithic or omit"));
+    sb.run(["name"])
+        .arg(&input)
+        .args(["--chert", "dott=quartz"])
+        .refused(2, &["unknown naming scheme \"dott\""]);
+    sb.run(["name"])
+        .arg(&input)
+        .args(["--chert", "folk=rock"])
+        .refused(2, &["quartz, lithic or omit"]);
 }
 
 #[test]
@@ -181,15 +153,12 @@ fn bad_input_is_refused_and_nothing_is_written() {
         "sample,Qm,Qp,C,P,K,Lv,Ls,Lm,matrix\nT-1,270,0,30,0,0,0,0,0,10\nT-2,60,6,4,x,4,150,30,26,120\n",
     );
     let out = sb.path("names.csv");
-    sb.sandprov()
-        .args(["name", input.to_str().unwrap(), "-o", out.to_str().unwrap()])
-        .assert()
-        .code(3)
-        .stderr(
-            predicate::str::contains("line 3, column 5 (\"P\")")
-                .and(predicate::str::contains("\"x\"")),
-        );
-    assert!(!out.exists());
+    sb.run(["name"])
+        .arg(&input)
+        .arg("-o")
+        .arg(&out)
+        .refused(3, &["line 3, column 5 (\"P\")", "\"x\""]);
+    assert_no_file(&out);
     assert_eq!(sb.files(), ["counts.csv"], "no partial file left");
 }
 
@@ -197,15 +166,11 @@ fn bad_input_is_refused_and_nothing_is_written() {
 fn output_over_the_input_is_refused() {
     let sb = Sandbox::new();
     let input = sb.write("counts.csv", COUNTS);
-    sb.sandprov()
-        .args([
-            "name",
-            input.to_str().unwrap(),
-            "-o",
-            input.to_str().unwrap(),
-        ])
-        .assert()
-        .code(2);
+    sb.run(["name"])
+        .arg(&input)
+        .arg("-o")
+        .arg(&input)
+        .refused(2, &[]);
     assert_eq!(fs::read_to_string(&input).unwrap(), COUNTS);
 }
 
@@ -223,23 +188,14 @@ fn mapping_and_percent_mode_give_the_same_names() {
         "map.toml",
         "id = \"Slide\"\n[categories]\nLv = [\"Lv felsitic\", \"Lv microlitic\"]\n",
     );
-    let v: Value = serde_json::from_slice(
-        &sb.sandprov()
-            .args([
-                "name",
-                lab.to_str().unwrap(),
-                "--scheme",
-                map.to_str().unwrap(),
-                "--percent",
-                "--format",
-                "json",
-            ])
-            .assert()
-            .success()
-            .get_output()
-            .stdout,
-    )
-    .unwrap();
+    let v = sb
+        .run(["name"])
+        .arg(&lab)
+        .arg("--scheme")
+        .arg(&map)
+        .args(["--percent", "--format", "json"])
+        .ok()
+        .json();
     assert_eq!(v[0]["sample"], "T-2");
     assert_eq!(v[0]["folk"], "litharenite");
     assert_eq!(v[0]["garzanti"], "quartzo-lithic");
@@ -253,13 +209,11 @@ fn mapping_and_percent_mode_give_the_same_names() {
 #[test]
 fn demo_is_named_throughout() {
     let sb = Sandbox::new();
-    let out = sb
-        .sandprov()
-        .args(["name", "--format", "json"])
+    let v = sb
+        .run(["name", "--format", "json"])
         .arg(demo_counts())
-        .assert()
-        .success();
-    let v: Value = serde_json::from_slice(&out.get_output().stdout).unwrap();
+        .ok()
+        .json();
     let samples = v.as_array().unwrap();
     assert_eq!(samples.len(), 40);
     for s in samples {

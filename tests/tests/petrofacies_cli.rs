@@ -1,28 +1,22 @@
 //! `sandprov groups` and `sandprov section`, run as a user would.
 
-use sandprov_tests::{demo_counts, Sandbox};
+use sandprov_tests::{demo_counts, json, Run, Sandbox};
 
 const HEAD: &str = "sample,Qm,Qp,C,P,K,Lv,Ls,Lm,formation,height_m";
 
-fn json(bytes: &[u8]) -> serde_json::Value {
-    serde_json::from_slice(bytes).expect("valid JSON")
+/// `sandprov section --height height_m` with `args`, in the sandbox; the table comes next.
+fn section(sb: &Sandbox, args: &[&str]) -> Run {
+    sb.run(["section", "--height", "height_m"]).args(args)
 }
 
 #[test]
 fn groups_json_on_the_demo_has_three_formations_and_their_tests() {
     let sb = Sandbox::new();
-    let out = sb
-        .sandprov()
-        .args(["groups", "--by", "formation", "--format", "json"])
+    let v = sb
+        .run(["groups", "--by", "formation", "--format", "json"])
         .arg(demo_counts())
-        .output()
-        .unwrap();
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
-    );
-    let v = json(&out.stdout);
+        .ok()
+        .json();
     assert_eq!(v["by"], "formation");
     assert_eq!(v["level"], 0.95);
     let groups = v["groups"].as_array().unwrap();
@@ -70,28 +64,11 @@ fn groups_json_on_the_demo_has_three_formations_and_their_tests() {
 #[test]
 fn groups_csv_and_side_tables() {
     let sb = Sandbox::new();
-    let out = sb
-        .sandprov()
-        .args([
-            "groups",
-            "--by",
-            "formation",
-            "-o",
-            "g.csv",
-            "--pairwise",
-            "p.csv",
-            "--regions",
-            "r.csv",
-        ])
+    sb.run(["groups", "--by", "formation", "-o", "g.csv"])
+        .args(["--pairwise", "p.csv", "--regions", "r.csv"])
         .arg(demo_counts())
-        .output()
-        .unwrap();
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
-    );
-    let g = std::fs::read_to_string(sb.path("g.csv")).unwrap();
+        .ok();
+    let g = sb.read("g.csv");
     assert!(g.starts_with("group,n,qfl_n,qfl_points,qfl_mean_Q,qfl_mean_F,qfl_mean_L,"));
     assert_eq!(g.lines().count(), 4);
     let width = g.lines().next().unwrap().split(',').count();
@@ -99,14 +76,14 @@ fn groups_csv_and_side_tables() {
         g.lines().all(|l| l.split(',').count() == width),
         "rectangular table"
     );
-    let p = std::fs::read_to_string(sb.path("p.csv")).unwrap();
+    let p = sb.read("p.csv");
     assert_eq!(p.lines().count(), 1 + 15);
     assert!(p
         .lines()
         .nth(1)
         .unwrap()
         .starts_with("qfl,Tarn Hollow Formation,Velmor Formation,14,12,hotelling,"));
-    let r = std::fs::read_to_string(sb.path("r.csv")).unwrap();
+    let r = sb.read("r.csv");
     assert!(r.starts_with("group,diagram,region,vertex,p1,p2,p3\n"));
     assert!(r.contains(",qfl,prediction,96,"));
 }
@@ -125,26 +102,19 @@ fn small_groups_get_a_seeded_permutation_test() {
     ];
     let input = sb.write("c.csv", format!("{HEAD}\n{}\n", rows.join("\n")));
     let run = |seed: &str| {
-        let out = sb
-            .sandprov()
-            .args([
-                "groups",
-                "--by",
-                "formation",
-                "--format",
-                "json",
-                "--seed",
-                seed,
-            ])
-            .arg(&input)
-            .output()
-            .unwrap();
-        assert!(
-            out.status.success(),
-            "{}",
-            String::from_utf8_lossy(&out.stderr)
-        );
-        out.stdout
+        sb.run([
+            "groups",
+            "--by",
+            "formation",
+            "--format",
+            "json",
+            "--seed",
+            seed,
+        ])
+        .arg(&input)
+        .ok()
+        .output
+        .stdout
     };
     let first = run("5");
     assert_eq!(first, run("5"), "same seed, same bytes");
@@ -165,77 +135,35 @@ fn groups_refusals_name_the_problem() {
         "c.csv",
         format!("{HEAD}\na,1,1,1,1,1,1,1,1,X,1\nb,1,1,1,1,1,1,1,1, ,2\n"),
     );
-    let out = sb
-        .sandprov()
-        .args(["groups", "--by", "formaton"])
+    sb.run(["groups", "--by", "formaton"])
         .arg(&input)
-        .output()
-        .unwrap();
-    assert_eq!(out.status.code(), Some(2));
-    assert!(String::from_utf8_lossy(&out.stderr).contains("formaton"));
-    let out = sb
-        .sandprov()
-        .args(["groups", "--by", "formation", "-o", "o.json"])
+        .refused(2, &["formaton"]);
+    sb.run(["groups", "--by", "formation", "-o", "o.json"])
         .arg(&input)
-        .output()
-        .unwrap();
-    assert_eq!(out.status.code(), Some(3));
-    let err = String::from_utf8_lossy(&out.stderr);
-    assert!(
-        err.contains("line 3")
-            && err.contains("column 10 (\"formation\")")
-            && err.contains("group name"),
-        "{err}"
-    );
+        .refused(3, &["line 3", "column 10 (\"formation\")", "group name"]);
     assert!(
         !sb.files().contains(&"o.json".to_string()),
         "nothing written on refusal"
     );
-    let out = sb
-        .sandprov()
-        .args(["groups", "--by", "formation", "--level", "1.5"])
+    sb.run(["groups", "--by", "formation", "--level", "1.5"])
         .arg(&input)
-        .output()
-        .unwrap();
-    assert_eq!(out.status.code(), Some(2));
-    let out = sb
-        .sandprov()
-        .args(["groups", "--by", "formation", "--pairwise", "c.csv"])
+        .refused(2, &[]);
+    // An output over the input is refused.
+    sb.run(["groups", "--by", "formation", "--pairwise", "c.csv"])
         .arg(&input)
-        .output()
-        .unwrap();
-    assert_eq!(
-        out.status.code(),
-        Some(2),
-        "an output over the input is refused"
-    );
+        .refused(2, &[]);
 }
 
 #[test]
 fn section_on_the_demo_finds_the_formation_changes() {
     let sb = Sandbox::new();
-    let out = sb
-        .sandprov()
-        .args([
-            "section",
-            "--height",
-            "height_m",
-            "--by",
-            "formation",
-            "-o",
-            "s.svg",
-            "--changes",
-            "c.json",
-        ])
-        .arg(demo_counts())
-        .output()
-        .unwrap();
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
-    );
-    let v = json(&std::fs::read(sb.path("c.json")).unwrap());
+    section(
+        &sb,
+        &["--by", "formation", "-o", "s.svg", "--changes", "c.json"],
+    )
+    .arg(demo_counts())
+    .ok();
+    let v = sb.read_json("c.json");
     let changes = v["changes"].as_array().unwrap();
     // demo/README.md: formations change at about 390 m and 770 m.
     let between: Vec<(f64, f64)> = changes
@@ -251,7 +179,7 @@ fn section_on_the_demo_finds_the_formation_changes() {
     assert_eq!(changes[0]["below"]["sample"], "KB-014");
     assert_eq!(changes[1]["above"]["sample"], "KB-027");
     assert_eq!(v["segments"].as_array().unwrap().len(), 3);
-    let svg = std::fs::read_to_string(sb.path("s.svg")).unwrap();
+    let svg = sb.read("s.svg");
     let doc = roxmltree::Document::parse(&svg).expect("the SVG parses as XML");
     let ids: Vec<&str> = doc
         .descendants()
@@ -291,27 +219,10 @@ fn section_on_the_demo_finds_the_formation_changes() {
 #[test]
 fn section_csv_changes_and_depth_axis() {
     let sb = Sandbox::new();
-    let out = sb
-        .sandprov()
-        .args([
-            "section",
-            "--height",
-            "height_m",
-            "--depth",
-            "-o",
-            "s.svg",
-            "--changes",
-            "c.csv",
-        ])
+    section(&sb, &["--depth", "-o", "s.svg", "--changes", "c.csv"])
         .arg(demo_counts())
-        .output()
-        .unwrap();
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
-    );
-    let csv = std::fs::read_to_string(sb.path("c.csv")).unwrap();
+        .ok();
+    let csv = sb.read("c.csv");
     let mut lines = csv.lines();
     assert_eq!(lines.next().unwrap(), "change,below_sample,below_position,above_sample,above_position,midpoint,gain,penalty,diagrams,ordering");
     // Read as depths, the deepest sample (KB-040) is the oldest: the same two breaks, listed
@@ -341,28 +252,11 @@ fn hostile_group_names_cannot_inject_markup() {
         })
         .collect();
     let input = sb.write("c.csv", format!("{HEAD}\n{}\n", rows.join("\n")));
-    let out = sb
-        .sandprov()
-        .args([
-            "section",
-            "--height",
-            "height_m",
-            "--by",
-            "formation",
-            "-o",
-            "s.svg",
-            "--title",
-            "<b>T</b> & \u{7}",
-        ])
+    let title = "<b>T</b> & \u{7}";
+    section(&sb, &["--by", "formation", "-o", "s.svg", "--title", title])
         .arg(&input)
-        .output()
-        .unwrap();
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
-    );
-    let svg = std::fs::read_to_string(sb.path("s.svg")).unwrap();
+        .ok();
+    let svg = sb.read("s.svg");
     let doc = roxmltree::Document::parse(&svg).expect("the SVG parses as XML");
     assert!(!doc
         .descendants()
@@ -385,19 +279,9 @@ fn hostile_group_names_cannot_inject_markup() {
 fn section_writes_png_and_pdf_from_the_same_figure() {
     let sb = Sandbox::new();
     for (name, magic) in [("s.png", &b"\x89PNG"[..]), ("s.pdf", &b"%PDF-"[..])] {
-        sb.sandprov()
-            .args([
-                "section",
-                "--height",
-                "height_m",
-                "--by",
-                "formation",
-                "-o",
-                name,
-            ])
+        section(&sb, &["--by", "formation", "-o", name])
             .arg(demo_counts())
-            .assert()
-            .success();
+            .ok();
         let bytes = std::fs::read(sb.path(name)).unwrap();
         assert!(bytes.starts_with(magic), "{name}");
     }
@@ -421,37 +305,18 @@ fn section_refuses_unknown_figure_formats_and_bad_columns() {
         ),
         (vec!["-o", "s.svg", "--penalty", "0"], 2, "penalty"),
     ] {
-        let out = sb
-            .sandprov()
-            .args(["section", "--height", "height_m"])
-            .args(&args)
+        section(&sb, &args)
             .arg(demo_counts())
-            .output()
-            .unwrap();
-        assert_eq!(out.status.code(), Some(code), "{args:?}");
-        assert!(
-            String::from_utf8_lossy(&out.stderr).contains(words),
-            "{args:?}: {}",
-            String::from_utf8_lossy(&out.stderr)
-        );
+            .refused(code, &[words]);
     }
     assert!(sb.files().is_empty(), "nothing written: {:?}", sb.files());
     let input = sb.write(
         "c.csv",
         format!("{HEAD}\na,1,1,1,1,1,1,1,1,X,12\nb,1,1,1,1,1,1,1,1,X,twelve\n"),
     );
-    let out = sb
-        .sandprov()
-        .args(["section", "--height", "height_m", "-o", "s.svg"])
+    section(&sb, &["-o", "s.svg"])
         .arg(&input)
-        .output()
-        .unwrap();
-    assert_eq!(out.status.code(), Some(3));
-    let err = String::from_utf8_lossy(&out.stderr);
-    assert!(
-        err.contains("line 3") && err.contains("\"twelve\"") && err.contains("finite number"),
-        "{err}"
-    );
+        .refused(3, &["line 3", "\"twelve\"", "finite number"]);
     assert_eq!(sb.files(), ["c.csv"]);
 }
 
@@ -467,9 +332,8 @@ fn percent_tables_without_points_get_means_but_no_pooling() {
         "p4,42,2,0,21,5,23,4,3,X,4",
     ];
     let input = sb.write("p.csv", format!("{HEAD}\n{}\n", rows.join("\n")));
-    let out = sb
-        .sandprov()
-        .args([
+    let v = sb
+        .run([
             "groups",
             "--percent",
             "--by",
@@ -478,14 +342,8 @@ fn percent_tables_without_points_get_means_but_no_pooling() {
             "json",
         ])
         .arg(&input)
-        .output()
-        .unwrap();
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
-    );
-    let v = json(&out.stdout);
+        .ok()
+        .json();
     let qfl = &v["groups"][0]["qfl"];
     assert!(qfl["pooled"].is_null() && qfl["homogeneity"].is_null() && qfl["points"].is_null());
     assert!(qfl["confidence_region"].is_array());

@@ -6,9 +6,8 @@
 //! `LogisticRegression` (lbfgs, multinomial; numpy 2.4.6, scipy 1.17.1), computed once by
 //! tests/peers/sklearn_logistic.py on the invented table tests/peers/classifier_reference.csv.
 
-use predicates::prelude::*;
 use provenance_core::output::column_slug;
-use sandprov_tests::{demo_counts, repo_root, Sandbox};
+use sandprov_tests::{assert_no_file, demo_counts, repo_root, Sandbox};
 use serde_json::Value;
 
 const SKLEARN: &str = include_str!("../peers/sklearn_logistic.json");
@@ -75,21 +74,18 @@ fn classifier_section(html: &str) -> &str {
 fn report_with_a_default_model_id_shows_the_classifier_for_every_sample() {
     let sb = Sandbox::new();
     // The id comes from the list of embedded field sets, as a user would find it.
-    let list = sb.sandprov().args(["fields", "list"]).assert().success();
-    let list = String::from_utf8(list.get_output().stdout.clone()).unwrap();
+    let list = sb.run(["fields", "list"]).ok().stdout();
     let id = list
         .lines()
         .filter_map(|l| l.split_whitespace().next())
         .find(|id| id.starts_with("dickinson") && id.ends_with("-qfl"))
         .expect("an embedded QFL field set");
     assert_eq!(id, "dickinson1985-qfl");
-    sb.sandprov()
-        .arg("report")
+    sb.run(["report"])
         .arg(demo_counts())
         .args(["-o", "out", "--model", id, "--quiet"])
-        .assert()
-        .success();
-    let html = std::fs::read_to_string(sb.path("out/report.html")).unwrap();
+        .ok();
+    let html = sb.read("out/report.html");
     let section = classifier_section(&html);
     let counts = std::fs::read_to_string(demo_counts()).unwrap();
     let ids: Vec<&str> = counts
@@ -133,8 +129,7 @@ fn report_with_a_default_model_id_shows_the_classifier_for_every_sample() {
     let sp = checked_probabilities(&sh, &srows);
     assert_eq!(sp, p);
 
-    let json: Value =
-        serde_json::from_slice(&std::fs::read(sb.path("out/results.json")).unwrap()).unwrap();
+    let json = sb.read_json("out/results.json");
     let block = &json["classifier"];
     assert_eq!(block["model"], "default model of dickinson1985-qfl");
     assert_eq!(block["source"]["default_model_of"], "dickinson1985-qfl");
@@ -162,31 +157,17 @@ fn report_with_a_default_model_id_shows_the_classifier_for_every_sample() {
 #[test]
 fn report_with_a_trained_model_reproduces_scikit_learn() {
     let sb = Sandbox::new();
-    sb.sandprov()
-        .arg("train")
+    sb.run(["train"])
         .arg(reference_counts())
-        .args([
-            "--label",
-            "group",
-            "--diagram",
-            "framework",
-            "--l2",
-            "1",
-            "--folds",
-            "3",
-            "-o",
-            "model.json",
-        ])
+        .args(["--label", "group", "--diagram", "framework", "--l2", "1"])
+        .args(["--folds", "3", "-o", "model.json"])
         .env("SOURCE_DATE_EPOCH", "1735689600")
-        .assert()
-        .success();
-    sb.sandprov()
-        .arg("report")
+        .ok();
+    sb.run(["report"])
         .arg(reference_counts())
         .args(["-o", "out", "--model", "model.json", "--by", "group"])
-        .assert()
-        .success()
-        .stdout(predicate::str::contains("out/report.html"));
+        .ok()
+        .stdout_has(&["out/report.html"]);
     let (header, rows) = read_csv(&sb.path("out/classifier.csv"));
     let got = checked_probabilities(&header, &rows);
     let v: Value = serde_json::from_str(SKLEARN).unwrap();
@@ -205,7 +186,7 @@ fn report_with_a_trained_model_reproduces_scikit_learn() {
             assert!((a - b.as_f64().unwrap()).abs() < 1e-4, "{a} vs {b}");
         }
     }
-    let html = std::fs::read_to_string(sb.path("out/report.html")).unwrap();
+    let html = sb.read("out/report.html");
     let section = classifier_section(&html);
     for r in &rows {
         assert!(section.contains(&format!("<td>{}</td>", r[0])), "{}", r[0]);
@@ -217,8 +198,7 @@ fn report_with_a_trained_model_reproduces_scikit_learn() {
     assert!(html.contains("2025-01-01"));
     assert!(html.contains("label column &quot;group&quot;"));
     assert!(html.contains("3-fold: accuracy"));
-    let json: Value =
-        serde_json::from_slice(&std::fs::read(sb.path("out/results.json")).unwrap()).unwrap();
+    let json = sb.read_json("out/results.json");
     assert_eq!(json["classifier"]["source"]["file"], "model.json");
     assert_eq!(json["classifier"]["compared_with"], Value::Null);
     assert_eq!(json["classifier"]["training"]["samples"], 90);
@@ -234,25 +214,18 @@ fn a_model_of_provenance_groups_is_compared_with_the_field_group() {
         .replace(",class-b,", ",magmatic arc,")
         .replace(",class-c,", ",recycled orogen,");
     sb.write("groups.csv", table);
-    sb.sandprov()
-        .args([
-            "train",
-            "groups.csv",
-            "--label",
-            "group",
-            "--diagram",
-            "qfl",
-            "--folds",
-            "0",
-            "-o",
-            "groups-model.json",
-        ])
-        .assert()
-        .success();
-    sb.sandprov()
-        .args(["demo", "-q", "-o", "out", "--model", "groups-model.json"])
-        .assert()
-        .success();
+    sb.run([
+        "train",
+        "groups.csv",
+        "--label",
+        "group",
+        "--diagram",
+        "qfl",
+    ])
+    .args(["--folds", "0", "-o", "groups-model.json"])
+    .ok();
+    sb.run(["demo", "-q", "-o", "out", "--model", "groups-model.json"])
+        .ok();
     let (header, rows) = read_csv(&sb.path("out/classifier.csv"));
     checked_probabilities(&header, &rows);
     let col = |name: &str| header.iter().position(|h| h == name).unwrap();
@@ -273,58 +246,38 @@ fn a_model_of_provenance_groups_is_compared_with_the_field_group() {
             (r[col("classifier_top")] == r[col("placement")]).to_string()
         );
     }
-    let html = std::fs::read_to_string(sb.path("out/report.html")).unwrap();
+    let html = sb.read("out/report.html");
     assert!(html.contains("QFL provenance group (dickinson1985-qfl)"));
 }
 
 #[test]
 fn refused_models_leave_no_report_folder() {
     let sb = Sandbox::new();
-    sb.sandprov()
-        .arg("train")
+    sb.run(["train"])
         .arg(reference_counts())
-        .args([
-            "--label",
-            "group",
-            "--diagram",
-            "qmpk",
-            "--folds",
-            "0",
-            "-o",
-            "qmpk.json",
-        ])
-        .assert()
-        .success();
+        .args(["--label", "group", "--diagram", "qmpk", "--folds", "0"])
+        .args(["-o", "qmpk.json"])
+        .ok();
     // Invented: no Qm, P or K in any sample, so QmPK has no data.
     sb.write(
         "no-qmpk.csv",
         "sample,Qm,Qp,P,K,Lv,Ls,Lm\nX-1,0,40,0,0,30,20,10\nX-2,0,35,0,0,25,30,10\n",
     );
-    let refuse = |args: &[&str], code: i32, needles: &[&str]| {
+    // `sandprov report no-qmpk.csv -o out --model MODEL` is refused and leaves no file.
+    let refuse = |model: &str, code: i32, needles: &[&str]| {
         let before = sb.files();
-        let mut cmd = sb.sandprov();
-        let run = cmd.args(args).assert().code(code);
-        let err = String::from_utf8(run.get_output().stderr.clone()).unwrap();
-        for n in needles {
-            assert!(err.contains(n), "{args:?}: {n:?} not in {err}");
-        }
-        assert_eq!(sb.files(), before, "{args:?} left files behind");
+        sb.run(["report", "no-qmpk.csv", "-o", "out", "--model", model])
+            .refused(code, needles);
+        assert_eq!(sb.files(), before, "--model {model} left files behind");
     };
     // A model for a diagram with no data, file and embedded id alike.
     refuse(
-        &["report", "no-qmpk.csv", "-o", "out", "--model", "qmpk.json"],
+        "qmpk.json",
         3,
         &["qmpk.json", "no sample of", "qmpk composition (Qm, P, K)"],
     );
     refuse(
-        &[
-            "report",
-            "no-qmpk.csv",
-            "-o",
-            "out",
-            "--model",
-            "dickinson-suczek1979-qmpk",
-        ],
+        "dickinson-suczek1979-qmpk",
         3,
         &["default model of dickinson-suczek1979-qmpk", "qfl"],
     );
@@ -333,18 +286,7 @@ fn refused_models_leave_no_report_folder() {
         "broken.json",
         "{\"format\": \"sandprov-model\", \"version\": 2,",
     );
-    refuse(
-        &[
-            "report",
-            "no-qmpk.csv",
-            "-o",
-            "out",
-            "--model",
-            "broken.json",
-        ],
-        3,
-        &["broken.json, line 1", "not valid JSON"],
-    );
+    refuse("broken.json", 3, &["broken.json, line 1", "not valid JSON"]);
     // A model whose content no longer matches its checksum (one class renamed, still in
     // sorted order so that only the checksum can tell).
     let text = std::fs::read_to_string(sb.path("qmpk.json")).unwrap();
@@ -357,31 +299,9 @@ fn refused_models_leave_no_report_folder() {
         .expect("a checksum key");
     let checksum_at =
         format!("edited.json, line {line}, column 3 (\"checksum\"): key \"checksum\"");
-    refuse(
-        &[
-            "report",
-            "no-qmpk.csv",
-            "-o",
-            "out",
-            "--model",
-            "edited.json",
-        ],
-        3,
-        &[&checksum_at, "an unaltered model file"],
-    );
+    refuse("edited.json", 3, &[&checksum_at, "an unaltered model file"]);
     // Neither a file nor an embedded id.
-    refuse(
-        &[
-            "report",
-            "no-qmpk.csv",
-            "-o",
-            "out",
-            "--model",
-            "missing.json",
-        ],
-        4,
-        &["cannot read missing.json"],
-    );
+    refuse("missing.json", 4, &["cannot read missing.json"]);
     // The model file as the output.
     sb.write(
         "ok.csv",
@@ -389,40 +309,26 @@ fn refused_models_leave_no_report_folder() {
     );
     let before = sb.files();
     let model = std::fs::read(sb.path("qmpk.json")).unwrap();
-    let run = sb
-        .sandprov()
-        .args([
-            "report",
-            "ok.csv",
-            "-o",
-            "qmpk.json",
-            "--model",
-            "qmpk.json",
-        ])
-        .assert()
-        .code(2);
-    let err = String::from_utf8(run.get_output().stderr.clone()).unwrap();
-    assert!(err.contains("qmpk.json is also an input"), "{err}");
+    sb.run([
+        "report",
+        "ok.csv",
+        "-o",
+        "qmpk.json",
+        "--model",
+        "qmpk.json",
+    ])
+    .refused(2, &["qmpk.json is also an input"]);
     assert_eq!(sb.files(), before);
     assert_eq!(std::fs::read(sb.path("qmpk.json")).unwrap(), model);
     // A model inside an earlier report folder that would be replaced.
-    sb.sandprov()
-        .args(["report", "ok.csv", "-o", "old", "-q"])
-        .assert()
-        .success();
+    sb.run(["report", "ok.csv", "-o", "old", "-q"]).ok();
     std::fs::copy(sb.path("qmpk.json"), sb.path("old/qmpk.json")).unwrap();
-    sb.sandprov()
-        .args(["report", "ok.csv", "-o", "old", "--model", "old/qmpk.json"])
-        .assert()
-        .code(2)
-        .stderr(predicate::str::contains("is also an input"));
+    sb.run(["report", "ok.csv", "-o", "old", "--model", "old/qmpk.json"])
+        .refused(2, &["is also an input"]);
     assert_eq!(std::fs::read(sb.path("old/qmpk.json")).unwrap(), model);
-    assert!(!sb.path("old/classifier.csv").exists());
+    assert_no_file(sb.path("old/classifier.csv"));
     // demo refuses the same way.
-    sb.sandprov()
-        .args(["demo", "-o", "d", "--model", "edited.json"])
-        .assert()
-        .code(3)
-        .stderr(predicate::str::contains("edited.json"));
-    assert!(!sb.path("d").exists());
+    sb.run(["demo", "-o", "d", "--model", "edited.json"])
+        .refused(3, &["edited.json"]);
+    assert_no_file(sb.path("d"));
 }

@@ -3,20 +3,9 @@
 //! invented; the shipped field vertices are from memory, unverified, so the checks here are of
 //! the calculation (probabilities sum to 1, determinism, sharpening), not of boundary positions.
 
-use assert_cmd::Command;
-use predicates::prelude::*;
+use sandprov_tests::{repo_root, Sandbox};
 use serde_json::Value;
-use std::path::{Path, PathBuf};
-
-fn sandprov() -> Command {
-    Command::cargo_bin("sandprov").expect("the sandprov binary (built by `cargo test --workspace`)")
-}
-
-fn write(dir: &Path, name: &str, text: &str) -> PathBuf {
-    let p = dir.join(name);
-    std::fs::write(&p, text).unwrap();
-    p
-}
+use std::path::Path;
 
 /// Invented counts: a quartz arenite deep in craton interior, an arc sand, a recycled sand,
 /// one with only 2 points of L, and the same proportions as INV-03 counted with 4 times the
@@ -49,20 +38,18 @@ fn cells(line: &str) -> Vec<String> {
 }
 
 fn run_json(args: &[&str], counts: &Path) -> Value {
-    let out = sandprov()
-        .arg("setting")
+    sandprov_tests::run(["setting"])
         .arg(counts)
         .args(["--format", "json"])
         .args(args)
-        .assert()
-        .success();
-    serde_json::from_slice(&out.get_output().stdout).unwrap()
+        .ok()
+        .json()
 }
 
 #[test]
 fn every_diagram_gets_membership_summing_to_one() {
-    let dir = tempfile::tempdir().unwrap();
-    let counts = write(dir.path(), "counts.csv", COUNTS);
+    let sb = Sandbox::new();
+    let counts = sb.write("counts.csv", COUNTS);
     let v = run_json(&[], &counts);
     for row in v.as_array().unwrap() {
         for d in ["qfl", "qmflt", "qmpk", "qplvlsm"] {
@@ -110,8 +97,8 @@ P-2,40,10,20,10,10,5,5,400
 
 #[test]
 fn more_points_sharpen_the_top_probability() {
-    let dir = tempfile::tempdir().unwrap();
-    let counts = write(dir.path(), "counts.csv", COUNTS);
+    let sb = Sandbox::new();
+    let counts = sb.write("counts.csv", COUNTS);
     let v = run_json(&[], &counts);
     // INV-05 is INV-03 counted four times over.
     for d in ["qfl", "qmflt"] {
@@ -126,11 +113,10 @@ fn more_points_sharpen_the_top_probability() {
 
 #[test]
 fn same_seed_gives_identical_bytes_whatever_the_threads() {
-    let dir = tempfile::tempdir().unwrap();
-    let counts = write(dir.path(), "percents.csv", PERCENTS);
+    let sb = Sandbox::new();
+    let counts = sb.write("percents.csv", PERCENTS);
     let run = |threads: &str, seed: &str| {
-        sandprov()
-            .arg("setting")
+        sb.run(["setting"])
             .arg(&counts)
             .args([
                 "--percent",
@@ -142,11 +128,9 @@ fn same_seed_gives_identical_bytes_whatever_the_threads() {
                 seed,
             ])
             .env("RAYON_NUM_THREADS", threads)
-            .assert()
-            .success()
-            .get_output()
+            .ok()
+            .output
             .stdout
-            .clone()
     };
     let a = run("1", "7");
     assert!(a == run("2", "7"), "one and two threads differ");
@@ -173,9 +157,9 @@ fn same_seed_gives_identical_bytes_whatever_the_threads() {
 
 #[test]
 fn percentages_without_points_get_no_membership() {
-    let dir = tempfile::tempdir().unwrap();
+    let sb = Sandbox::new();
     let table = "sample;Qm;Qp;P;K;Lv;Ls;Lm\nPUB-1;20;2;35;5;30;4;4\n";
-    let counts = write(dir.path(), "published.csv", table);
+    let counts = sb.write("published.csv", table);
     let v = run_json(&["--percent"], &counts);
     assert!(v[0]["qfl"]["field"].is_string());
     assert_eq!(v[0]["qfl"]["membership"], Value::Null);
@@ -191,12 +175,11 @@ fn percentages_without_points_get_no_membership() {
 
 #[test]
 fn a_trained_model_and_a_default_model_add_classifier_probabilities() {
-    let dir = tempfile::tempdir().unwrap();
-    let counts = write(dir.path(), "counts.csv", COUNTS);
-    let model = dir.path().join("model.json");
-    let reference = Path::new(env!("CARGO_MANIFEST_DIR")).join("peers/classifier_reference.csv");
-    sandprov()
-        .arg("train")
+    let sb = Sandbox::new();
+    let counts = sb.write("counts.csv", COUNTS);
+    let model = sb.path("model.json");
+    let reference = repo_root().join("tests/peers/classifier_reference.csv");
+    sb.run(["train"])
         .arg(&reference)
         .args([
             "--label",
@@ -208,9 +191,8 @@ fn a_trained_model_and_a_default_model_add_classifier_probabilities() {
             "-o",
         ])
         .arg(&model)
-        .assert()
-        .success()
-        .stdout(predicate::str::contains("cross-validation skipped"));
+        .ok()
+        .stdout_has(&["cross-validation skipped"]);
     let v = run_json(&["--model", model.to_str().unwrap()], &counts);
     let c = &v[0]["classifier"];
     assert_eq!(c["composition"], "framework");
@@ -239,30 +221,23 @@ fn a_trained_model_and_a_default_model_add_classifier_probabilities() {
     assert_eq!(top.0, "craton interior");
 
     // A broken model file is refused, naming the file and the key.
-    let bad = write(
-        dir.path(),
+    let bad = sb.write(
         "bad.json",
-        &std::fs::read_to_string(&model)
-            .unwrap()
+        sb.read("model.json")
             .replace("\"intercepts\"", "\"intercept\""),
     );
-    sandprov()
-        .arg("setting")
+    sb.run(["setting"])
         .arg(&counts)
         .arg("--model")
         .arg(&bad)
-        .assert()
-        .code(3)
-        .stderr(predicate::str::contains("bad.json"))
-        .stderr(predicate::str::contains("intercept"));
+        .refused(3, &["bad.json", "intercept"]);
 }
 
 #[test]
 fn csv_has_membership_columns_and_no_membership_leaves_them_out() {
-    let dir = tempfile::tempdir().unwrap();
-    let counts = write(dir.path(), "counts.csv", COUNTS);
-    let out = sandprov().arg("setting").arg(&counts).assert().success();
-    let text = String::from_utf8(out.get_output().stdout.clone()).unwrap();
+    let sb = Sandbox::new();
+    let counts = sb.write("counts.csv", COUNTS);
+    let text = sb.run(["setting"]).arg(&counts).ok().stdout();
     let header = cells(text.lines().next().unwrap());
     let header: Vec<&str> = header.iter().map(String::as_str).collect();
     for col in [
@@ -282,12 +257,11 @@ fn csv_has_membership_columns_and_no_membership_leaves_them_out() {
     let i = header.iter().position(|h| *h == "qfl_top").unwrap();
     assert_eq!(row[i], "craton interior");
 
-    let out = sandprov()
-        .arg("setting")
+    let text = sb
+        .run(["setting"])
         .arg(&counts)
         .arg("--no-membership")
-        .assert()
-        .success();
-    let text = String::from_utf8(out.get_output().stdout.clone()).unwrap();
+        .ok()
+        .stdout();
     assert!(!text.lines().next().unwrap().contains("qfl_p_"));
 }
