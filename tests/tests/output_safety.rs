@@ -226,3 +226,37 @@ fn a_good_large_run_writes_every_row() {
         std::fs::remove_file(sb.path("out.csv")).unwrap();
     }
 }
+
+/// Regression: `-o /dev/null` (or any other device or pipe) was written beside and renamed
+/// over, which put a plain file in place of the device. A named pipe stands in for the device
+/// here, so that a failure cannot harm the machine: the table must come through the pipe and
+/// the pipe must still be a pipe.
+#[cfg(unix)]
+#[test]
+fn an_output_that_is_a_pipe_is_written_through_not_replaced() {
+    use std::os::unix::fs::FileTypeExt;
+    let sb = Sandbox::new();
+    sb.write("t.csv", table(50, "Z,1,1,1,1,1,1,1,1,1,Unit 0"));
+    let fifo = sb.path("pipe");
+    let made = std::process::Command::new("mkfifo").arg(&fifo).status();
+    if !made.is_ok_and(|s| s.success()) {
+        eprintln!("skipped: mkfifo is not available here");
+        return;
+    }
+    let reader = {
+        let fifo = fifo.clone();
+        std::thread::spawn(move || std::fs::read(fifo).unwrap())
+    };
+    sb.run(["modes", "t.csv", "-o", "pipe"]).ok();
+    // Checked before waiting on the reader, which would wait for ever on a replaced pipe.
+    let kind = std::fs::metadata(&fifo).unwrap().file_type();
+    assert!(kind.is_fifo(), "the pipe is still a pipe");
+    assert_eq!(sb.files(), ["pipe", "t.csv"], "no temporary file is left");
+    let got = String::from_utf8(reader.join().unwrap()).unwrap();
+    assert_eq!(
+        got.lines().count(),
+        52,
+        "header and 51 rows through the pipe"
+    );
+    assert!(got.starts_with("sample,"));
+}

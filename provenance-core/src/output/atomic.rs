@@ -52,11 +52,16 @@ pub fn check_not_input(output: &Path, inputs: &[&Path]) -> Result<()> {
 /// f.commit().unwrap();
 /// assert_eq!(std::fs::read(&path).unwrap(), b"a,b\n");
 /// ```
+///
+/// A target that exists and is not a regular file (`/dev/null`, `/dev/stdout`, a named pipe)
+/// is written directly: a stream cannot be replaced whole, and renaming over it would put a
+/// plain file in its place.
 pub struct AtomicFile {
     // The file and its temporary path apart: writes to a plain file report the operating
     // system's reason alone, where tempfile's own file adds its temporary name to each error.
     tmp: BufWriter<std::fs::File>,
-    tmp_path: tempfile::TempPath,
+    /// The temporary path; `None` when the target is a stream written directly.
+    tmp_path: Option<tempfile::TempPath>,
     path: PathBuf,
     writeback: Writeback,
 }
@@ -70,6 +75,8 @@ const WRITEBACK_BYTES: u64 = 8 << 20;
 struct Writeback {
     written: u64,
     requested_at: u64,
+    /// Off for streams, which have nothing to flush to disk (a pipe refuses `sync_data`).
+    enabled: bool,
     worker: Option<(
         std::sync::mpsc::SyncSender<()>,
         std::thread::JoinHandle<std::io::Result<()>>,
@@ -77,7 +84,19 @@ struct Writeback {
 }
 
 impl Writeback {
+    fn off() -> Writeback {
+        Writeback {
+            written: 0,
+            requested_at: 0,
+            worker: None,
+            enabled: false,
+        }
+    }
+
     fn wrote(&mut self, n: usize, file: &std::fs::File) {
+        if !self.enabled {
+            return;
+        }
         self.written += n as u64;
         if self.written - self.requested_at < WRITEBACK_BYTES {
             return;
@@ -118,6 +137,23 @@ impl Writeback {
 impl AtomicFile {
     /// Start writing `path`.
     pub fn create(path: &Path) -> Result<AtomicFile> {
+        let werr = |source| Error::Write {
+            path: path.display().to_string(),
+            source,
+        };
+        let special = std::fs::metadata(path).is_ok_and(|m| !m.is_file() && !m.is_dir());
+        if special {
+            let stream = std::fs::OpenOptions::new()
+                .write(true)
+                .open(path)
+                .map_err(werr)?;
+            return Ok(AtomicFile {
+                tmp: BufWriter::with_capacity(1 << 16, stream),
+                tmp_path: None,
+                path: path.to_path_buf(),
+                writeback: Writeback::off(),
+            });
+        }
         let dir = path
             .parent()
             .filter(|p| !p.as_os_str().is_empty())
@@ -133,12 +169,13 @@ impl AtomicFile {
             .into_parts();
         Ok(AtomicFile {
             tmp: BufWriter::with_capacity(1 << 16, tmp),
-            tmp_path,
+            tmp_path: Some(tmp_path),
             path: path.to_path_buf(),
             writeback: Writeback {
                 written: 0,
                 requested_at: 0,
                 worker: None,
+                enabled: true,
             },
         })
     }
@@ -158,6 +195,10 @@ impl AtomicFile {
         self.tmp.flush().map_err(err)?;
         self.writeback.finish().map_err(err)?;
         let tmp = self.tmp.into_inner().map_err(|e| err(e.into_error()))?;
+        let Some(tmp_path) = self.tmp_path else {
+            // A stream: everything is written once it is flushed.
+            return Ok(());
+        };
         // Temporary files are created private (0600); a finished output gets the usual
         // permissions of a new file (0644 before the umask), as any other program's would.
         #[cfg(unix)]
@@ -169,9 +210,7 @@ impl AtomicFile {
         }
         tmp.sync_all().map_err(err)?;
         drop(tmp);
-        self.tmp_path
-            .persist(&self.path)
-            .map_err(|e| err(e.error))?;
+        tmp_path.persist(&self.path).map_err(|e| err(e.error))?;
         Ok(())
     }
 }
@@ -293,6 +332,26 @@ impl Write for Sink {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[cfg(unix)]
+    #[test]
+    fn a_device_is_written_through_and_stays_a_device() {
+        // Regression: committing renamed a temporary file over /dev/null. Opening it for
+        // writing is harmless; after the fix the device must still be a character device.
+        use std::os::unix::fs::FileTypeExt;
+        let null = Path::new("/dev/null");
+        if !std::fs::metadata(null).is_ok_and(|m| m.file_type().is_char_device()) {
+            eprintln!("skipped: /dev/null is not a character device here");
+            return;
+        }
+        let mut f = AtomicFile::create(null).unwrap();
+        f.write_all(&[b'x'; 100_000]).unwrap();
+        f.commit().unwrap();
+        assert!(std::fs::metadata(null)
+            .unwrap()
+            .file_type()
+            .is_char_device());
+    }
 
     #[test]
     fn a_missing_folder_is_reported_once_under_the_output_path() {
