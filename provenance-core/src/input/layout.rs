@@ -22,6 +22,9 @@ pub(crate) struct Layout {
     pub present: [bool; 14],
 }
 
+/// Normalised headers taken as the sample id column without a mapping, in order of preference.
+const ID_HEADERS: [&str; 5] = ["sample", "sampleid", "sampleno", "sampleno.", "samplename"];
+
 /// The roles of the columns of `headers`, the header of `file` on 1-based line
 /// `header_line` (which every refusal of the header names).
 pub(crate) fn resolve_at(
@@ -41,17 +44,21 @@ pub(crate) fn resolve_at(
     };
     let mut roles = vec![Role::Meta; headers.len()];
 
-    let id_name = mapping
-        .and_then(|m| m.id_column.clone())
-        .unwrap_or_else(|| "sample".into());
-    let id = keys
-        .iter()
-        .position(|k| *k == normalize_header(&id_name))
-        .ok_or_else(|| Error::Malformed {
-            at: header(),
-            message: format!("no sample id column {id_name:?} among {headers:?}"),
-            expected: "a column named \"sample\" (or id = \"…\" in the --scheme mapping)".into(),
-        })?;
+    let named = mapping.and_then(|m| m.id_column.clone());
+    // Without a mapping, the id column is `sample` or one of the spellings labs use for it
+    // (header matching already ignores case, spaces, underscores and hyphens; common practice).
+    let id = match &named {
+        Some(name) => keys.iter().position(|k| *k == normalize_header(name)),
+        None => ID_HEADERS
+            .iter()
+            .find_map(|alias| keys.iter().position(|k| k == alias)),
+    };
+    let id_name = named.unwrap_or_else(|| "sample".into());
+    let id = id.ok_or_else(|| Error::Malformed {
+        at: header(),
+        message: format!("no sample id column {id_name:?} among {headers:?}"),
+        expected: "a column named \"sample\" (or \"sample id\", \"sample no\", \"sample name\"; or id = \"…\" in the --scheme mapping)".into(),
+    })?;
     roles[id] = Role::Id;
 
     if let Some(m) = mapping {
@@ -153,6 +160,29 @@ mod tests {
 
     fn cells(line: &str) -> Vec<String> {
         line.split(',').map(str::to_string).collect()
+    }
+
+    #[test]
+    fn labs_spellings_of_the_id_column_are_taken_and_sample_is_preferred() {
+        let fw = "Qm,Qp,P,K,Lv,Ls,Lm";
+        for (head, id) in [
+            (format!("Sample ID,{fw}"), 0),
+            (format!("x,sample_no.,{fw}"), 1),
+            (format!("Sample-Name,{fw}"), 0),
+            (format!("Sample ID,Sample,{fw}"), 1),
+        ] {
+            let l = resolve_at("t.csv", 1, &cells(&head), None, false).unwrap();
+            assert_eq!(l.id, id, "{head}");
+        }
+        // Not every column with "sample" in it is an id.
+        let e = resolve_at(
+            "t.csv",
+            1,
+            &cells(&format!("sample type,{fw}")),
+            None,
+            false,
+        );
+        assert!(e.is_err());
     }
 
     #[test]
