@@ -31,9 +31,9 @@ pub(crate) struct Limits {
 }
 
 impl Default for Limits {
-    /// About 13 MiB at the most: 458,752 ids (7/8 of a 2¹⁹-slot index, the index's own load
-    /// limit, so it never grows past that) of 24 bytes plus 5 index bytes each, and 8 MiB of
-    /// id text. A 300,000-sample table stays in memory.
+    /// At most 458,752 ids (7/8 of a 2¹⁹-slot index, the index's own load limit, so it never
+    /// grows past that) of 24 bytes plus 5 index bytes each, about 13 MiB, and up to 8 MiB of
+    /// their text. A 300,000-sample table stays in memory.
     fn default() -> Limits {
         Limits {
             entries: 458_752,
