@@ -7,9 +7,7 @@ use crate::counts::Sample;
 use crate::error::{Error, Result};
 use crate::input::blocks::{Block, Part, PartRows, Splitter};
 use crate::input::ids::{id_key, IdRegistry};
-use crate::input::reader::{
-    csv_error, earliest_refusal, id_store_error, is_blank, RawRows, RowParser,
-};
+use crate::input::reader::{csv_error, earliest_refusal, is_blank, RawRows, RowParser};
 use crate::input::CountReader;
 use crate::modes::SampleModes;
 use crate::output::{Format, ModesJson, ModesTable};
@@ -260,11 +258,7 @@ where
                 let mut id_start = 0;
                 for &(key, line, id_end) in &out.ids {
                     let id = &out.id_text[id_start..id_end];
-                    match seen.insert(key, id, line) {
-                        Ok(None) => {}
-                        Ok(Some(repeat)) => return Err(parser.duplicate(&repeat)),
-                        Err(e) => return Err(id_store_error(e)),
-                    }
+                    parser.refuse_repeat(seen.insert(key, id, line))?;
                     id_start = id_end;
                 }
                 if out.rows > 0 {
@@ -280,11 +274,7 @@ where
             let _ = spare_outs.send(outs);
         }
         // A repeat across ids written out to disk shows only at the end.
-        match seen.repeat_before(u64::MAX) {
-            Ok(None) => Ok(()),
-            Ok(Some(repeat)) => Err(parser.duplicate(&repeat)),
-            Err(e) => Err(id_store_error(e)),
-        }
+        parser.refuse_repeat(seen.repeat_before(u64::MAX))
     })
 }
 

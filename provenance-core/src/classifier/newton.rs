@@ -16,6 +16,13 @@ pub(crate) struct Evaluation {
     pub hessian: Vec<f64>,
 }
 
+impl Evaluation {
+    /// The largest absolute component of the gradient: the convergence measure.
+    pub(crate) fn gradient_max(&self) -> f64 {
+        self.gradient.iter().fold(0.0f64, |a, v| a.max(v.abs()))
+    }
+}
+
 /// A fitting problem: rows `x` (d features) with classes `y` (of k), penalty `l2`.
 pub(crate) struct Problem<'a> {
     pub x: &'a [Vec<f64>],
@@ -196,7 +203,7 @@ fn solve(h: &[f64], g: &[f64]) -> Option<Vec<f64>> {
 pub(crate) fn polish(pr: &Problem<'_>, theta: &mut [f64], tol: f64, max_steps: u32) -> u32 {
     for step in 0..max_steps {
         let e = evaluate(pr, theta, true);
-        let gmax = e.gradient.iter().fold(0.0f64, |a, v| a.max(v.abs()));
+        let gmax = e.gradient_max();
         if gmax <= tol {
             return step;
         }

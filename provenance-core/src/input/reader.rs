@@ -364,16 +364,8 @@ impl CountReader {
             return Ok(());
         }
         let line = line_of(rec);
-        match self.seen.insert(id_key(id), id, line) {
-            Ok(Some(repeat)) => Err(self.parser.duplicate(&repeat)),
-            Ok(None) => Ok(()),
-            Err(e) => Err(id_store_error(e)),
-        }
-    }
-
-    /// A refusal of the table as it stands, made the earliest one (see [`earliest_refusal`]).
-    fn earliest(&mut self, e: Error) -> Error {
-        earliest_refusal(&mut self.seen, &self.parser, e)
+        self.parser
+            .refuse_repeat(self.seen.insert(id_key(id), id, line))
     }
 }
 
@@ -384,15 +376,14 @@ pub(crate) fn earliest_refusal(seen: &mut IdRegistry, parser: &RowParser, e: Err
         // Already the earliest: the registry looked before answering.
         return e;
     }
-    match seen.repeat_before(e.row_line().unwrap_or(u64::MAX)) {
-        Ok(Some(repeat)) => parser.duplicate(&repeat),
-        Ok(None) => e,
-        Err(io) => id_store_error(io),
+    match parser.refuse_repeat(seen.repeat_before(e.row_line().unwrap_or(u64::MAX))) {
+        Ok(()) => e,
+        Err(earlier) => earlier,
     }
 }
 
 /// The refusal when the temporary files holding sample ids fail.
-pub(crate) fn id_store_error(source: std::io::Error) -> Error {
+fn id_store_error(source: std::io::Error) -> Error {
     Error::Write {
         path: format!(
             "a temporary file of sample ids in {}",
@@ -420,8 +411,18 @@ impl RowParser {
         self.dialect.delimiter
     }
 
+    /// The id registry's answer as a refusal: an id used a second time, or a failure of its
+    /// temporary files.
+    pub(crate) fn refuse_repeat(&self, answer: std::io::Result<Option<Repeat>>) -> Result<()> {
+        match answer {
+            Ok(None) => Ok(()),
+            Ok(Some(repeat)) => Err(self.duplicate(&repeat)),
+            Err(e) => Err(id_store_error(e)),
+        }
+    }
+
     /// The refusal of an id used a second time.
-    pub(crate) fn duplicate(&self, repeat: &Repeat) -> Error {
+    fn duplicate(&self, repeat: &Repeat) -> Error {
         Error::DuplicateId {
             at: self.location(repeat.line, self.layout.id),
             id: String::from_utf8_lossy(&repeat.id).into_owned(),
@@ -572,11 +573,10 @@ impl Iterator for CountReader {
             Ok(false) => {
                 // A repeat across ids written out to disk shows only now.
                 self.ended = true;
-                match self.seen.repeat_before(u64::MAX) {
-                    Ok(None) => None,
-                    Ok(Some(repeat)) => Some(Err(self.parser.duplicate(&repeat))),
-                    Err(e) => Some(Err(id_store_error(e))),
-                }
+                self.parser
+                    .refuse_repeat(self.seen.repeat_before(u64::MAX))
+                    .err()
+                    .map(Err)
             }
             Ok(true) => Some(
                 self.check_unique(&rec)
@@ -589,7 +589,7 @@ impl Iterator for CountReader {
             Some(Err(e)) => {
                 self.done = true;
                 self.ended = true;
-                Some(Err(self.earliest(e)))
+                Some(Err(earliest_refusal(&mut self.seen, &self.parser, e)))
             }
             r => r,
         }
