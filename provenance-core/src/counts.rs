@@ -94,16 +94,22 @@ impl Category {
         }
     }
 
-    /// The category whose symbol matches `name`, ignoring case, spaces and underscores.
+    /// The category whose symbol matches `name`, ignoring case, spaces, underscores and hyphens.
+    /// Chert is also found by its name, `chert`, the header labs give it beside the symbol `C`
+    /// (common practice).
     ///
     /// # Example
     /// ```
     /// use provenance_core::counts::Category;
     /// assert_eq!(Category::from_name(" Q_m "), Some(Category::Qm));
+    /// assert_eq!(Category::from_name("Chert"), Some(Category::C));
     /// assert_eq!(Category::from_name("quartz"), None);
     /// ```
     pub fn from_name(name: &str) -> Option<Category> {
         let key = normalize_header(name);
+        if key == "chert" {
+            return Some(Category::C);
+        }
         Category::ALL
             .into_iter()
             .find(|c| normalize_header(c.symbol()) == key)

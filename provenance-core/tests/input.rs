@@ -106,6 +106,15 @@ fn header_matching_ignores_case_spaces_and_underscores() {
 }
 
 #[test]
+fn chert_is_found_by_its_name_and_a_second_chert_column_is_refused() {
+    let s = read("sample,Qm,Qp,Chert,P,K,Lv,Ls,Lm\nA,1,2,3,4,5,6,7,8\n").unwrap();
+    assert_eq!(s[0].framework.c, 3.0);
+    assert!(s[0].metadata.is_empty());
+    let e = read("sample,Qm,Qp,C,P,K,Lv,Ls,Lm,chert\nA,1,2,3,4,5,6,7,8,9\n").unwrap_err();
+    assert!(matches!(e, Error::DuplicateColumn { .. }), "{e}");
+}
+
+#[test]
 fn chert_column_is_optional_and_metadata_is_carried() {
     let text = "sample,formation,Qm,Qp,P,K,Lv,Ls,Lm,height\nA,\"Upper, west\",1,2,4,5,6,7,8,12.5\n";
     let r = CountReader::from_reader("t.csv", text.as_bytes(), ReadOptions::default()).unwrap();

@@ -70,6 +70,52 @@ fn report_escapes_user_text() {
     assert!(!html.contains("<script>alert(1)"));
     assert!(!html.contains("<img src=x"));
     assert!(html.contains("&lt;script&gt;alert(1)&lt;/script&gt;"));
+    // No --height: no section, and no link to one.
+    assert!(!html.contains("href=\"#changes\""));
+}
+
+#[test]
+fn a_section_too_short_to_search_says_why_and_prints_no_nan() {
+    // Three samples are too few for a change between two segments of the minimum size.
+    let sb = Sandbox::new();
+    sb.write(
+        "c.csv",
+        "sample,Qm,Qp,P,K,Lv,Ls,Lm,unit,h\n\
+         A,200,10,40,20,5,8,4,lower,1\n\
+         B,150,20,50,30,20,10,6,lower,2\n\
+         C,90,30,20,5,80,30,20,upper,3\n",
+    );
+    sb.sandprov()
+        .args([
+            "report", "c.csv", "-o", "out", "--by", "unit", "--height", "h",
+        ])
+        .assert()
+        .success();
+    let html = std::fs::read_to_string(sb.path("out/report.html")).unwrap();
+    assert!(html.contains("No change-point search: "), "no reason given");
+    assert!(!html.contains("NaN"), "a NaN reached the page");
+    // p-values read as decimals (three places), not as 3.000e-1.
+    assert!(!html.contains("e-1<"), "p-value in scientific notation");
+    // The contents bar links every section the page holds.
+    for id in [
+        "summary",
+        "figures",
+        "samples",
+        "provenance",
+        "groups",
+        "changes",
+        "methods",
+        "cautions",
+    ] {
+        assert!(
+            html.contains(&format!("<a href=\"#{id}\">")),
+            "no link to #{id}"
+        );
+        assert!(
+            html.contains(&format!("<h2 id=\"{id}\">")),
+            "no section #{id}"
+        );
+    }
 }
 
 #[test]

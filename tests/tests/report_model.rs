@@ -86,6 +86,7 @@ fn report_with_a_default_model_id_shows_the_classifier_for_every_sample() {
         .args(["-o", "out", "--model", id, "--quiet"])
         .ok();
     let html = sb.read("out/report.html");
+    assert!(html.contains("<a href=\"#classifier\">Classifier</a>"));
     let section = classifier_section(&html);
     let counts = std::fs::read_to_string(demo_counts()).unwrap();
     let ids: Vec<&str> = counts

@@ -4,7 +4,7 @@ use crate::cli::ReportArgs;
 use provenance_core::classifier::NamedModel;
 use provenance_core::error::Result;
 use provenance_core::petrofacies::Table;
-use provenance_core::report::{build, ReportOptions};
+use provenance_core::report::{build_observed, Observer, ReportOptions};
 use std::path::Path;
 
 /// The `--model` value resolved (a model file, or an embedded set's default model).
@@ -16,7 +16,6 @@ pub(crate) fn model(spec: Option<&str>) -> Result<Option<NamedModel>> {
 pub fn run(a: ReportArgs) -> Result<()> {
     let progress = crate::progress::Progress::start(a.quiet, "reading the count table");
     let data = Table::read(super::open_counts(&a.input)?)?;
-    progress.step("computing modes, names, fields, groups and figures");
     let options = ReportOptions {
         by: a.by,
         height: a.height,
@@ -27,8 +26,8 @@ pub fn run(a: ReportArgs) -> Result<()> {
     let mut inputs = super::input_paths(&a.input);
     inputs.extend(options.fields.iter().map(Path::new).filter(|p| p.exists()));
     inputs.extend(options.model.as_ref().and_then(NamedModel::file));
-    let files = build(&data, &options)?;
-    progress.step("writing the report folder");
+    let files = build_observed(&data, &options, &progress)?;
+    progress.step("writing the report folder", 0);
     files.write_to(&a.output, &inputs)?;
     progress.finish();
     if !a.quiet {
