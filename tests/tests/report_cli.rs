@@ -82,7 +82,7 @@ fn a_section_too_short_to_search_says_why_and_prints_no_nan() {
         "c.csv",
         "sample,Qm,Qp,P,K,Lv,Ls,Lm,unit,h\n\
          A,200,10,40,20,5,8,4,lower,1\n\
-         B,150,20,50,30,20,10,6,lower,2\n\
+         B,195,12,42,19,6,7,5,lower,2\n\
          C,90,30,20,5,80,30,20,upper,3\n",
     );
     sb.sandprov()
@@ -94,7 +94,17 @@ fn a_section_too_short_to_search_says_why_and_prints_no_nan() {
     let html = std::fs::read_to_string(sb.path("out/report.html")).unwrap();
     assert!(html.contains("No change-point search: "), "no reason given");
     assert!(!html.contains("NaN"), "a NaN reached the page");
-    // p-values read as decimals (three places), not as 3.000e-1.
+    // p-values read as decimals (three places), not as 9.72e-1: the two near-identical
+    // `lower` samples pass the pooling check with a p-value well above 0.001.
+    let p = html
+        .split_once("df 2, p = ")
+        .map(|(_, rest)| &rest[..6])
+        .expect("no pooling check of the lower group");
+    let b = p.as_bytes();
+    assert!(
+        b[0] == b'0' && b[1] == b'.' && b[2..5].iter().all(u8::is_ascii_digit) && b[5] == b':',
+        "p-value not as three decimals: {p:?}"
+    );
     assert!(!html.contains("e-1<"), "p-value in scientific notation");
     // The contents bar links every section the page holds.
     for id in [

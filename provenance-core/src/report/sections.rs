@@ -501,3 +501,16 @@ fn p_text(p: f64) -> String {
         format!("{p:.1e}")
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::p_text;
+
+    #[test]
+    fn p_values_read_as_decimals_down_to_a_thousandth() {
+        assert_eq!(p_text(0.972), "0.972");
+        assert_eq!(p_text(0.001), "0.001");
+        assert_eq!(p_text(9.7e-4), "9.7e-4");
+        assert_eq!(p_text(1.23e-12), "1.2e-12");
+    }
+}
